@@ -1,0 +1,15 @@
+/**
+ * The one place that configures MapLibre for bundlers. MapLibre 6 has no default export and,
+ * under vite, loads its worker from a URL that must be set before the first map is created.
+ */
+import { setWorkerUrl } from 'maplibre-gl';
+import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
+
+let configured = false;
+
+/** Points MapLibre at its worker bundle; safe to call more than once. */
+export function configureMapLibre(): void {
+  if (configured) return;
+  setWorkerUrl(workerUrl);
+  configured = true;
+}
