@@ -1,0 +1,9 @@
+/**
+ * The registry of benchmark cases, in the order they run.
+ */
+import type { BenchCase } from '../harness';
+import { kambCase } from './kamb';
+import { exponentialCase, exponentialCoarseCase } from './exponential';
+import { girdleCase } from './girdle';
+
+export const benchCases: readonly BenchCase[] = [kambCase, exponentialCoarseCase, exponentialCase, girdleCase];
