@@ -30,6 +30,15 @@ export const defaultOverlayOptions: FoldlensOverlayOptions = {
   selectionColor: '#e8590c',
 };
 
+/** Selected stations whose symbols are drawn above the thinning; larger selections show rings only. */
+const MAX_LIFTED_SYMBOLS = 5000;
+
+function flagsOf(indices: Iterable<number>, size: number): Uint8Array {
+  const flags = new Uint8Array(size);
+  for (const i of indices) if (i >= 0 && i < size) flags[i] = 1;
+  return flags;
+}
+
 /** Detail of `stationclick` and `stationhover` events. */
 export interface StationEventDetail {
   /** Index of the station in the array given to setStations, or -1 when the pointer left all stations. */
@@ -49,7 +58,7 @@ export class FoldlensOverlay extends EventTarget {
   private readonly map: MapLibreMap;
   private stations: readonly Station[] = [];
   private features: FeatureCollection<Point, StationFeatureProperties> = { type: 'FeatureCollection', features: [] };
-  private selected = new Set<number>();
+  private selectedFlags = new Uint8Array(0);
   private hovered = -1;
   private visibleKinds: ReadonlySet<string> | null = null;
   private readonly addedImages = new Set<string>();
@@ -84,7 +93,7 @@ export class FoldlensOverlay extends EventTarget {
   /** Replaces the stations on the map. Unusable stations are not drawn (they remain in the caller's data). */
   setStations(stations: readonly Station[]): void {
     this.stations = stations;
-    this.selected = new Set();
+    this.selectedFlags = new Uint8Array(stations.length);
     this.hovered = -1;
     this.features = stationFeatures(stations);
     this.ensureImages();
@@ -104,13 +113,21 @@ export class FoldlensOverlay extends EventTarget {
     this.applyFilters();
   }
 
-  /** Marks stations (by index) as selected: rings are drawn and their symbols are never thinned out. */
-  setSelection(indices: Iterable<number>): void {
-    const next = new Set(indices);
-    for (const i of this.selected) if (!next.has(i)) this.setState(i, { selected: false });
-    for (const i of next) if (!this.selected.has(i)) this.setState(i, { selected: true });
-    this.selected = next;
-    this.updateSelectedSource();
+  /**
+   * Marks stations as selected: rings are drawn and, at `final` updates, their symbols are
+   * drawn above the thinning so selected stations are never hidden. Accepts membership flags
+   * (one per station) or indices; only stations whose state changed are touched, so a lasso
+   * move costs little even with 10^5 stations.
+   */
+  setSelection(selection: Uint8Array | Iterable<number>, final = true): void {
+    const next = selection instanceof Uint8Array ? selection : flagsOf(selection, this.stations.length);
+    const prev = this.selectedFlags;
+    for (let i = 0; i < this.stations.length; i++) {
+      const on = next[i] ?? 0;
+      if (on !== (prev[i] ?? 0)) this.setState(i, { selected: on === 1 });
+    }
+    this.selectedFlags = next.slice();
+    if (final) this.updateSelectedSource();
   }
 
   /** Highlights one station (by index, -1 for none), e.g. when hovering its point in a net. */
@@ -144,7 +161,10 @@ export class FoldlensOverlay extends EventTarget {
   private updateSelectedSource(): void {
     const source = this.map.getSource(`${this.sourceId}-selected`) as GeoJSONSource | undefined;
     if (!source) return;
-    const picked = [...this.selected].filter((i) => i >= 0 && i < this.stations.length);
+    const picked: number[] = [];
+    for (let i = 0; i < this.selectedFlags.length && picked.length <= MAX_LIFTED_SYMBOLS; i++) if (this.selectedFlags[i]) picked.push(i);
+    // Past this many, lifting symbols above the thinning would hide nothing less than it costs.
+    if (picked.length > MAX_LIFTED_SYMBOLS) picked.length = 0;
     const all = stationFeatures(picked.map((i) => this.stations[i]));
     // stationFeatures numbers features by position in its input; give them the real indices back.
     const features = all.features.map((f) => ({ ...f, id: picked[f.id as number] }));
@@ -311,19 +331,7 @@ export class FoldlensOverlay extends EventTarget {
       paint: { 'circle-radius': 10, 'circle-color': '#000', 'circle-opacity': 0 },
     });
     this.applyFilters();
-    for (const i of this.selected) this.setState(i, { selected: true });
+    for (let i = 0; i < this.selectedFlags.length; i++) if (this.selectedFlags[i]) this.setState(i, { selected: true });
     this.updateSelectedSource();
   }
-}
-
-/**
- * Attaches Foldlens to an existing MapLibre map (created by the host with its own style).
- * @example
- * const overlay = attachFoldlens(map);
- * overlay.setStations(stations);
- * overlay.addEventListener('stationclick', (e) => console.log(e.detail.station));
- * // later: overlay.remove();
- */
-export function attachFoldlens(map: MapLibreMap, options: Partial<FoldlensOverlayOptions> = {}): FoldlensOverlay {
-  return new FoldlensOverlay(map, options);
 }

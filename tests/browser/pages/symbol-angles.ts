@@ -3,7 +3,7 @@
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { Map as MapLibreMap } from 'maplibre-gl';
 import { configureMapLibre } from '../../../src/map/maplibreSetup';
-import { attachFoldlens } from '../../../src/map/foldlensOverlay';
+import { FoldlensOverlay } from '../../../src/map/foldlensOverlay';
 import type { Station } from '../../../src/core/station';
 
 configureMapLibre();
@@ -24,7 +24,7 @@ azimuths.forEach((az, i) => {
   stations.push({ id: `L${az}`, row: i + 1, kind: 'lineation', lon, lat, line: { trend: az, plunge: 30 }, source: {}, problems: [] });
   stations.push({ id: `P${az}`, row: i + 9, kind: 'bedding', lon, lat: lat - 0.0015, plane: { dipDirection: az, dip: 40 }, source: {}, problems: [] });
 });
-const overlay = attachFoldlens(map, { show: { dots: false, labels: false, symbols: true } });
+const overlay = new FoldlensOverlay(map, { show: { dots: false, labels: false, symbols: true } });
 map.on('load', () => {
   overlay.setStations(stations);
   map.once('idle', () => document.body.setAttribute('data-map-ready', 'true'));

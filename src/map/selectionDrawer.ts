@@ -1,0 +1,265 @@
+import type { Map as MapLibreMap, GeoJSONSource } from 'maplibre-gl';
+import type { Feature, Polygon, LineString } from 'geojson';
+import type { SelectionCombine } from '../core/liveSelection';
+
+/** The drawing tools. */
+export type SelectionToolName = 'lasso' | 'polygon' | 'rectangle';
+
+/** Detail of the drawer's events: the shape so far as a lon/lat ring (not closed). */
+export interface ShapeEventDetail {
+  readonly tool: SelectionToolName;
+  readonly combine: SelectionCombine;
+  /** Lon/lat vertices; for the lasso, `added` is the number of vertices appended since the last event. */
+  readonly ring: ReadonlyArray<readonly [number, number]>;
+  readonly added: number;
+}
+
+/** Minimum screen distance in CSS px between freehand lasso vertices. */
+const LASSO_STEP_PX = 3;
+
+/**
+ * Captures selection gestures on a MapLibre map with pointer events (mouse, pen and touch):
+ * freehand lasso (press and drag), rectangle (press and drag), polygon (click vertices; click
+ * the first vertex, double-click or press Enter to finish). Shift adds to the selection, Alt
+ * subtracts; on touch the combine mode comes from {@link SelectionDrawer.combine}. Escape
+ * cancels. While a tool is active the map does not pan with the pointer.
+ *
+ * Events on the drawer: `shapestart`, `shapechange`, `shapeend`, `shapecancel`, each with
+ * {@link ShapeEventDetail}.
+ */
+export class SelectionDrawer extends EventTarget {
+  /** Combine mode used when no modifier key is held (toolbar toggle, touch). */
+  combine: SelectionCombine = 'replace';
+  private readonly map: MapLibreMap;
+  private readonly prefix: string;
+  private tool: SelectionToolName | null = null;
+  private ring: Array<[number, number]> = [];
+  private screen: Array<[number, number]> = [];
+  private active = false;
+  private gestureCombine: SelectionCombine = 'replace';
+  private pointerId = -1;
+  private dragPanWasOn = true;
+  private hover: [number, number] | null = null;
+
+  constructor(map: MapLibreMap, idPrefix = 'foldlens') {
+    super();
+    this.map = map;
+    this.prefix = idPrefix;
+    const el = map.getCanvasContainer();
+    el.addEventListener('pointerdown', this.onDown);
+    el.addEventListener('pointermove', this.onMove);
+    el.addEventListener('pointerup', this.onUp);
+    el.addEventListener('pointercancel', this.onCancelPointer);
+    el.addEventListener('dblclick', this.onDoubleClick);
+    window.addEventListener('keydown', this.onKey);
+    map.on('style.load', this.install);
+    if (map.isStyleLoaded()) this.install();
+  }
+
+  get sourceId(): string {
+    return `${this.prefix}-shape`;
+  }
+
+  /** The tool in use, or null when the map pans normally. */
+  get currentTool(): SelectionToolName | null {
+    return this.tool;
+  }
+
+  /** Activates a tool (null returns the pointer to panning). */
+  setTool(tool: SelectionToolName | null): void {
+    if (this.active) this.cancel();
+    this.tool = tool;
+    this.map.getCanvas().style.cursor = tool ? 'crosshair' : '';
+    if (tool) {
+      this.dragPanWasOn = this.map.dragPan.isEnabled();
+      this.map.dragPan.disable();
+      this.map.doubleClickZoom.disable();
+    } else {
+      if (this.dragPanWasOn) this.map.dragPan.enable();
+      this.map.doubleClickZoom.enable();
+    }
+  }
+
+  /**
+   * Starts a polygon from code (keyboard operation): adds a vertex at a lon/lat, finishing with
+   * {@link finishPolygon}. Used by the keyboard selection in the toolbar.
+   */
+  addPolygonVertex(lngLat: readonly [number, number], combine: SelectionCombine = this.combine): void {
+    if (!this.active) this.start('polygon', combine);
+    this.ring.push([lngLat[0], lngLat[1]]);
+    const p = this.map.project(lngLat as [number, number]);
+    this.screen.push([p.x, p.y]);
+    this.emit('shapechange', 1);
+    this.draw();
+  }
+
+  /** Finishes the polygon being drawn (needs three vertices). */
+  finishPolygon(): void {
+    if (!this.active || this.ring.length < 3) return this.cancel();
+    this.finish();
+  }
+
+  /** Cancels the shape being drawn. */
+  cancel(): void {
+    if (!this.active) return;
+    this.active = false;
+    this.emit('shapecancel', 0);
+    this.ring = [];
+    this.screen = [];
+    this.draw();
+  }
+
+  /** Removes handlers, layers and the source. */
+  remove(): void {
+    const el = this.map.getCanvasContainer();
+    el.removeEventListener('pointerdown', this.onDown);
+    el.removeEventListener('pointermove', this.onMove);
+    el.removeEventListener('pointerup', this.onUp);
+    el.removeEventListener('pointercancel', this.onCancelPointer);
+    el.removeEventListener('dblclick', this.onDoubleClick);
+    window.removeEventListener('keydown', this.onKey);
+    this.map.off('style.load', this.install);
+    if (this.tool) this.setTool(null);
+    if (!this.map.style) return;
+    for (const id of [`${this.prefix}-shape-fill`, `${this.prefix}-shape-line`]) if (this.map.getLayer(id)) this.map.removeLayer(id);
+    if (this.map.getSource(this.sourceId)) this.map.removeSource(this.sourceId);
+  }
+
+  private readonly install = (): void => {
+    const map = this.map;
+    if (!map.getSource(this.sourceId)) map.addSource(this.sourceId, { type: 'geojson', data: { type: 'FeatureCollection', features: [] } });
+    if (!map.getLayer(`${this.prefix}-shape-fill`)) {
+      map.addLayer({ id: `${this.prefix}-shape-fill`, type: 'fill', source: this.sourceId, filter: ['==', ['geometry-type'], 'Polygon'], paint: { 'fill-color': '#e8590c', 'fill-opacity': 0.08 } });
+    }
+    if (!map.getLayer(`${this.prefix}-shape-line`)) {
+      map.addLayer({ id: `${this.prefix}-shape-line`, type: 'line', source: this.sourceId, paint: { 'line-color': '#e8590c', 'line-width': 2, 'line-dasharray': [2, 1] } });
+    }
+  };
+
+  private combineFor(e: PointerEvent | MouseEvent): SelectionCombine {
+    if (e.shiftKey) return 'add';
+    if (e.altKey) return 'subtract';
+    return this.combine;
+  }
+
+  private point(e: PointerEvent | MouseEvent): [number, number] {
+    const rect = this.map.getCanvasContainer().getBoundingClientRect();
+    return [e.clientX - rect.left, e.clientY - rect.top];
+  }
+
+  private lngLat(p: [number, number]): [number, number] {
+    const ll = this.map.unproject(p);
+    return [ll.lng, ll.lat];
+  }
+
+  private start(tool: SelectionToolName, combine: SelectionCombine): void {
+    this.active = true;
+    this.gestureCombine = combine;
+    this.ring = [];
+    this.screen = [];
+    this.dispatchEvent(new CustomEvent<ShapeEventDetail>('shapestart', { detail: { tool, combine, ring: [], added: 0 } }));
+  }
+
+  private readonly onDown = (e: PointerEvent): void => {
+    if (!this.tool || e.button > 0) return;
+    const p = this.point(e);
+    if (this.tool === 'polygon') {
+      if (this.active && this.screen.length >= 3) {
+        const [fx, fy] = this.screen[0];
+        if (Math.hypot(p[0] - fx, p[1] - fy) < 10) return this.finish();
+      }
+      this.addPolygonVertex(this.lngLat(p), this.active ? this.gestureCombine : this.combineFor(e));
+      return;
+    }
+    e.preventDefault();
+    this.pointerId = e.pointerId;
+    this.map.getCanvasContainer().setPointerCapture?.(e.pointerId);
+    this.start(this.tool, this.combineFor(e));
+    this.screen = [p];
+    this.ring = [this.lngLat(p)];
+    if (this.tool === 'rectangle') this.setRectangle(p, p);
+    this.emit('shapechange', 1);
+    this.draw();
+  };
+
+  private readonly onMove = (e: PointerEvent): void => {
+    if (!this.tool) return;
+    const p = this.point(e);
+    if (this.tool === 'polygon') {
+      this.hover = this.active ? p : null;
+      if (this.active) this.draw();
+      return;
+    }
+    if (!this.active || e.pointerId !== this.pointerId) return;
+    if (this.tool === 'rectangle') {
+      this.setRectangle(this.screen[0], p);
+      this.emit('shapechange', 0);
+      this.draw();
+      return;
+    }
+    const last = this.screen[this.screen.length - 1];
+    if (Math.hypot(p[0] - last[0], p[1] - last[1]) < LASSO_STEP_PX) return;
+    this.screen.push(p);
+    this.ring.push(this.lngLat(p));
+    this.emit('shapechange', 1);
+    this.draw();
+  };
+
+  private readonly onUp = (e: PointerEvent): void => {
+    if (!this.tool || this.tool === 'polygon' || !this.active || e.pointerId !== this.pointerId) return;
+    this.pointerId = -1;
+    if (this.ring.length < 3) return this.cancel();
+    this.finish();
+  };
+
+  private readonly onCancelPointer = (e: PointerEvent): void => {
+    if (e.pointerId === this.pointerId) this.cancel();
+  };
+
+  private readonly onDoubleClick = (e: MouseEvent): void => {
+    if (this.tool !== 'polygon' || !this.active) return;
+    e.preventDefault();
+    // The double click's two clicks each added a vertex at the same spot; keep one.
+    if (this.ring.length > 3) {
+      this.ring.pop();
+      this.screen.pop();
+    }
+    this.finishPolygon();
+  };
+
+  private readonly onKey = (e: KeyboardEvent): void => {
+    if (!this.active) return;
+    if (e.key === 'Escape') this.cancel();
+    else if (e.key === 'Enter' && this.tool === 'polygon') this.finishPolygon();
+  };
+
+  private setRectangle(a: [number, number], b: [number, number]): void {
+    // Four screen corners; unprojected they form the ground polygon seen on screen at any bearing/pitch.
+    this.screen = [a, [b[0], a[1]], b, [a[0], b[1]]];
+    this.ring = this.screen.map((p) => this.lngLat(p));
+  }
+
+  private finish(): void {
+    this.active = false;
+    this.hover = null;
+    this.emit('shapeend', 0);
+    this.ring = [];
+    this.screen = [];
+    this.draw();
+  }
+
+  private emit(type: string, added: number): void {
+    const tool = this.tool ?? 'polygon';
+    this.dispatchEvent(new CustomEvent<ShapeEventDetail>(type, { detail: { tool, combine: this.gestureCombine, ring: this.ring.slice(), added } }));
+  }
+
+  private draw(): void {
+    const source = this.map.getSource(this.sourceId) as GeoJSONSource | undefined;
+    if (!source) return;
+    const ring = this.hover && this.tool === 'polygon' ? [...this.ring, this.lngLat(this.hover)] : this.ring;
+    const features: Array<Feature<Polygon | LineString>> = [];
+    if (ring.length >= 3) features.push({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [[...ring, ring[0]]] } });
+    else if (ring.length === 2) features.push({ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: ring } });
+    source.setData({ type: 'FeatureCollection', features });
+  }
+}
