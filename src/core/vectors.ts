@@ -1,4 +1,4 @@
-import { acosClamped, asinClamped, normalizeAzimuth, toDegrees, toRadians, EPSILON } from './math';
+import { acosClamped, normalizeAzimuth, toDegrees, toRadians, EPSILON } from './math';
 import type { Line, Plane, Vec3 } from './types';
 
 /** Vector from components. */
@@ -56,9 +56,10 @@ export function lineToVector(line: Line): Vec3 {
  */
 export function vectorToLine(v: Vec3): Line {
   const u = toLowerHemisphere(normalize(v));
-  const plunge = toDegrees(asinClamped(u.z));
-  // For a vertical line the trend is undefined; report 0 rather than atan2 noise.
+  // atan2 rather than asin(z): asin loses precision near the vertical (and so does acos near horizontal).
   const horizontal = Math.hypot(u.x, u.y);
+  const plunge = toDegrees(Math.atan2(u.z, horizontal));
+  // For a vertical line the trend is undefined; report 0 rather than atan2 noise.
   const trend = horizontal < 1e-12 ? 0 : normalizeAzimuth(toDegrees(Math.atan2(u.y, u.x)));
   return { trend, plunge };
 }

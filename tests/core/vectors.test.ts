@@ -60,3 +60,16 @@ describe('angles', () => {
     expectClose(axialAngle(a, b), 0, 1e-6);
   });
 });
+
+describe('vectorToLine precision', () => {
+  it('vectorToLine keeps a nearly horizontal line horizontal to 1e-12° (atan2, not asin)', () => {
+    // A vector 1e-10 rad below the horizontal: plunge must be 1e-10 rad in degrees, not asin noise.
+    const back = vectorToLine(vec3(Math.cos(1e-10), 0, Math.sin(1e-10)));
+    expectClose(back.plunge, 1e-10 * (180 / Math.PI), 1e-15);
+  });
+  it('vectorToLine of a vector tilted 1e-9 rad from vertical has plunge 90 - 5.7e-8°', () => {
+    const e = 1e-9;
+    const back = vectorToLine(vec3(Math.sin(e), 0, Math.cos(e)));
+    expectClose(back.plunge, 90 - e * (180 / Math.PI), 1e-12);
+  });
+});
