@@ -1,15 +1,228 @@
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { Map as MapLibreMap } from 'maplibre-gl';
+import { Map as MapLibreMap, NavigationControl, ScaleControl } from 'maplibre-gl';
 import { configureMapLibre } from '../map/maplibreSetup';
+import { attachFoldlens, type SelectionChangeDetail } from '../map/foldlens';
+import type { StationEventDetail } from '../map/foldlensOverlay';
+import { AnalysisClient } from '../worker/analysisClient';
+import { analyzeFoldPoles } from '../core/foldAnalysis';
+import { describeProblem, isUsable, type Station } from '../core/station';
+import { foldInputFromStations } from '../core/foldInput';
+import { lineToVector, poleOf } from '../core/vectors';
+import { KIND_LABELS } from '../map/symbolCatalog';
+import { buildStyle, bounds, truth } from '../../sample-maps/korvane/index';
+import { loadSampleStations } from './sampleStations';
+import '../components/foldlens-toolbar';
+import '../components/foldlens-legend';
+import '../components/foldlens-station-card';
+import '../components/foldlens-net';
+import type { FoldlensNet } from '../components/foldlens-net';
+import '../components/foldlens-domains';
+import { simplify, polygon as turfPolygon } from '@turf/turf';
+import { DomainLayer, type DomainRingDetail } from '../map/domainLayer';
+import { newDomainId, nextDomainName, type Domain } from '../core/domain';
+import { loadDomains, saveDomains } from './domainStore';
 
 configureMapLibre();
 
+const $ = <T extends Element>(selector: string) => document.querySelector(selector) as T;
+const toolbar = $<HTMLElementTagNameMap['foldlens-toolbar']>('#toolbar');
+const net = $<FoldlensNet>('#net');
+const card = $<HTMLElementTagNameMap['foldlens-station-card']>('#card');
+const legend = $<HTMLElementTagNameMap['foldlens-legend']>('#legend');
+const hint = $<HTMLElement>('#hint');
+const domainsPanel = $<HTMLElementTagNameMap['foldlens-domains']>('#domains');
+
 const map = new MapLibreMap({
   container: 'map',
-  style: { version: 8, sources: {}, layers: [{ id: 'paper', type: 'background', paint: { 'background-color': '#f4f1ea' } }] },
-  center: [0, 0],
-  zoom: 2,
+  style: buildStyle(),
+  bounds,
+  fitBoundsOptions: { padding: 30 },
   attributionControl: false,
+  maxPitch: 60,
 });
-map.once('idle', () => document.body.setAttribute('data-map-ready', 'true'));
-(window as unknown as { foldlensMap: MapLibreMap }).foldlensMap = map;
+map.addControl(new NavigationControl({ visualizePitch: true }), 'top-left');
+map.addControl(new ScaleControl({ unit: 'metric' }), 'bottom-left');
+
+const foldlens = attachFoldlens(map);
+const domainLayer = new DomainLayer(map);
+let domains: Domain[] = loadDomains();
+const analysis = new AnalysisClient();
+let stations: Station[] = [];
+let contourMethod: 'kamb' | 'exponential' | 'off' = 'kamb';
+let netKind: 'equal-area' | 'equal-angle' = 'equal-area';
+let lastSelection: Int32Array = new Int32Array(0);
+
+function showProblems(all: readonly Station[]): void {
+  const bad = all.filter((s) => s.problems.length > 0);
+  $<HTMLElement>('#problems-summary').textContent = bad.length
+    ? `${bad.length} row${bad.length === 1 ? '' : 's'} could not be used (kept, not drawn)`
+    : 'Every row was read';
+  const list = $<HTMLOListElement>('#problems-list');
+  list.replaceChildren(
+    ...bad.flatMap((s) =>
+      s.problems.map((p) => {
+        const li = document.createElement('li');
+        li.textContent = describeProblem(p); // text only: data never becomes HTML
+        return li;
+      }),
+    ),
+  );
+}
+
+function polesOf(planes: readonly { dipDirection: number; dip: number }[]): Float64Array {
+  const out = new Float64Array(planes.length * 3);
+  planes.forEach((p, k) => {
+    const v = lineToVector(poleOf(p));
+    out.set([v.x, v.y, v.z], 3 * k);
+  });
+  return out;
+}
+
+async function analyseSelection(indices: Int32Array, final: boolean): Promise<void> {
+  lastSelection = indices;
+  const { planes, lines, planeIds: poleIds } = foldInputFromStations(stations, indices);
+  const poles = polesOf(planes);
+  net.poles = poles;
+  net.poleIds = poleIds;
+  net.planes = planes;
+  net.lines = lines;
+  net.selectionLabel = indices.length ? `${indices.length} stations selected: ${planes.length} bedding, ${lines.length} hinges and lineations` : 'No selection';
+  hint.hidden = indices.length > 0;
+  if (!final) {
+    // While drawing: the quick fit without bootstrap or density, straight from the poles.
+    net.analysis = analyzeFoldPoles(poles, { bootstrap: 0, lines });
+    return;
+  }
+  const result = await analysis.run({ planes, lines, bootstrap: 500, seed: 1, density: contourMethod, net: netKind });
+  if (!result || indices !== lastSelection) return; // a newer selection has taken over
+  net.analysis = result.analysis;
+  net.density = result.density;
+  net.description = result.description;
+  document.body.dataset.analysisReady = String(Date.now());
+}
+
+foldlens.addEventListener('selectionchange', (e) => {
+  const d = (e as CustomEvent<SelectionChangeDetail>).detail;
+  toolbar.selectedCount = d.indices.length;
+  domainsPanel.canSave = d.shape !== null && d.indices.length > 0;
+  void analyseSelection(d.indices, d.final);
+});
+foldlens.addEventListener('stationclick', (e) => {
+  card.station = (e as CustomEvent<StationEventDetail>).detail.station;
+});
+foldlens.addEventListener('stationhover', (e) => {
+  net.highlight = (e as CustomEvent<StationEventDetail>).detail.index;
+});
+net.addEventListener('foldlens-net-hover', (e) => foldlens.overlay.setHighlight((e as CustomEvent<{ index: number }>).detail.index));
+net.addEventListener('foldlens-net-pick', (e) => {
+  const i = (e as CustomEvent<{ index: number }>).detail.index;
+  if (i >= 0) card.station = stations[i];
+});
+net.addEventListener('foldlens-net-options', (e) => {
+  const d = (e as CustomEvent<{ net: typeof netKind; contours: typeof contourMethod }>).detail;
+  if (d.net === netKind && d.contours === contourMethod) return;
+  netKind = d.net;
+  contourMethod = d.contours;
+  void analyseSelection(lastSelection, true);
+});
+card.addEventListener('foldlens-close', () => (card.station = null));
+legend.addEventListener('foldlens-kind-filter', (e) => foldlens.overlay.setVisibleKinds((e as CustomEvent<{ visibleKinds: string[] | null }>).detail.visibleKinds));
+toolbar.addEventListener('foldlens-tool', (e) => {
+  const tool = (e as CustomEvent<{ tool: 'pan' | 'lasso' | 'polygon' | 'rectangle' }>).detail.tool;
+  foldlens.setTool(tool === 'pan' ? null : tool);
+});
+toolbar.addEventListener('foldlens-combine', (e) => foldlens.setCombine((e as CustomEvent<{ combine: 'replace' | 'add' | 'subtract' }>).detail.combine));
+toolbar.addEventListener('foldlens-clear', () => foldlens.clearSelection());
+toolbar.addEventListener('foldlens-select-kind', (e) => foldlens.selectKinds([(e as CustomEvent<{ kind: string }>).detail.kind]));
+
+// ---- Structural domains -------------------------------------------------------------------
+
+function setDomains(next: Domain[]): void {
+  domains = next;
+  domainLayer.setDomains(domains);
+  domainsPanel.domains = domains;
+  saveDomains(domains);
+}
+
+/** A lasso ring has a vertex every few pixels; keep its shape with far fewer vertices for editing. */
+function simplifiedRing(ring: ReadonlyArray<readonly [number, number]>): Array<[number, number]> {
+  const closed = [...ring.map((p) => [p[0], p[1]]), [ring[0][0], ring[0][1]]];
+  if (closed.length <= 8) return ring.map((p) => [p[0], p[1]]);
+  const xs = ring.map((p) => p[0]);
+  const ys = ring.map((p) => p[1]);
+  const diagonal = Math.hypot(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
+  const out = simplify(turfPolygon([closed]), { tolerance: diagonal * 0.004, highQuality: true }).geometry.coordinates[0];
+  return out.slice(0, -1).map((p) => [p[0], p[1]] as [number, number]);
+}
+
+/** Analyses the stations inside a ring exactly as the panel does, for a domain record. */
+async function domainFromRing(id: string, name: string, ring: Array<[number, number]>): Promise<Domain> {
+  foldlens.selectWithin(ring);
+  const indices = foldlens.selectedIndices();
+  const { planes, lines } = foldInputFromStations(stations, indices);
+  const result = await analysis.run({ planes, lines, bootstrap: 500, seed: 1, density: 'off', net: netKind });
+  return { id, name, ring, analysis: result?.analysis ?? null, stationIds: Array.from(indices, (i) => stations[i].id), updated: new Date().toISOString() };
+}
+
+domainsPanel.addEventListener('foldlens-domain-save', async (e) => {
+  const shape = foldlens.shape;
+  if (!shape) return;
+  const name = (e as CustomEvent<{ name: string }>).detail.name || nextDomainName(domains);
+  const domain = await domainFromRing(newDomainId(), name, simplifiedRing(shape));
+  setDomains([...domains, domain]);
+  document.body.dataset.domainsSaved = String(domains.length);
+});
+domainsPanel.addEventListener('foldlens-domain-show', (e) => {
+  const d = domains.find((x) => x.id === (e as CustomEvent<{ id: string }>).detail.id);
+  if (d) foldlens.selectWithin(d.ring);
+});
+domainsPanel.addEventListener('foldlens-domain-edit', (e) => {
+  const id = (e as CustomEvent<{ id: string | null }>).detail.id;
+  domainLayer.edit(id);
+  domainsPanel.editingId = id;
+  const d = domains.find((x) => x.id === id);
+  if (d) foldlens.selectWithin(d.ring);
+});
+domainsPanel.addEventListener('foldlens-domain-rename', (e) => {
+  const { id, name } = (e as CustomEvent<{ id: string; name: string }>).detail;
+  setDomains(domains.map((d) => (d.id === id ? { ...d, name, updated: new Date().toISOString() } : d)));
+});
+domainsPanel.addEventListener('foldlens-domain-delete', (e) => {
+  const id = (e as CustomEvent<{ id: string }>).detail.id;
+  domainsPanel.deleted = domains.find((d) => d.id === id) ?? null;
+  if (domainLayer.editingId === id) domainsPanel.editingId = null;
+  setDomains(domains.filter((d) => d.id !== id));
+});
+domainsPanel.addEventListener('foldlens-domain-undo', () => {
+  const d = domainsPanel.deleted;
+  if (d) setDomains([...domains, d]);
+  domainsPanel.deleted = null;
+});
+domainLayer.addEventListener('domainringchange', (e) => foldlens.selectWithin((e as CustomEvent<DomainRingDetail>).detail.ring));
+domainLayer.addEventListener('domainringend', async (e) => {
+  const { id, ring } = (e as CustomEvent<DomainRingDetail>).detail;
+  const old = domains.find((d) => d.id === id);
+  if (!old) return;
+  const updated = await domainFromRing(id, old.name, ring);
+  setDomains(domains.map((d) => (d.id === id ? updated : d)));
+});
+domainLayer.addEventListener('domainclick', (e) => {
+  if (foldlens.drawer.currentTool) return; // clicks while drawing belong to the drawing
+  const d = domains.find((x) => x.id === (e as CustomEvent<{ id: string }>).detail.id);
+  if (d) foldlens.selectWithin(d.ring);
+});
+
+map.on('load', () => {
+  stations = loadSampleStations();
+  foldlens.setStations(stations);
+  legend.stations = stations;
+  card.station = null;
+  const kinds = [...new Set(stations.filter(isUsable).map((s) => s.kind!))];
+  toolbar.kinds = kinds.map((kind) => ({ kind, label: KIND_LABELS[kind] ?? kind }));
+  showProblems(stations);
+  setDomains(domains);
+  $<HTMLElement>('#dataset-label').textContent = `${truth.district} — synthetic demo data, ${stations.length} rows`;
+  map.once('idle', () => document.body.setAttribute('data-map-ready', 'true'));
+});
+
+Object.assign(window, { foldlensDemo: { map, foldlens, get stations() { return stations; } } });

@@ -1,3 +1,4 @@
+import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS, foldInputFromStations } from '../core/foldInput';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { analyzeFold, type FoldAnalysis } from '../core/foldAnalysis';
 import { formatLine, formatPlane } from '../core/notation';
@@ -27,15 +28,17 @@ export const ANALYZE_OPTIONS: readonly OptionSpec[] = [
   { name: 'json', help: 'print the result as JSON' },
   { name: 'bootstrap', value: 'N', help: 'bootstrap resamples for the 95% cone about the axis (default 500; 0 skips it)' },
   { name: 'seed', value: 'S', help: 'seed of the bootstrap, so results can be repeated (default 1)' },
-  { name: 'plane-kinds', value: 'list', help: 'planar kinds to analyse, comma-separated (default: every planar kind)' },
-  { name: 'line-kinds', value: 'list', help: 'linear kinds to compare with the axis, comma-separated (default: every linear kind)' },
+  { name: 'plane-kinds', value: 'list', help: 'planar kinds to analyse as the folded surface, comma-separated (default: bedding)' },
+  { name: 'line-kinds', value: 'list', help: 'linear kinds to compare with the axis, comma-separated (default: hinge, intersection, lineation)' },
   { name: 'help', help: 'show this help' },
   ...INPUT_OPTIONS,
 ];
 
 export const ANALYZE_HELP = `Usage: foldlens analyze <file.csv|file.geojson> [options]
 
-Finds the fold axis of the usable planes (the pole of their best-fit girdle), with the
+Finds the fold axis of the usable planes of the folded surface (bedding unless
+--plane-kinds says otherwise; cleavage and other axial-planar fabrics are left out) as the
+pole of their best-fit girdle, with the
 eigenvalues of the orientation tensor, Woodcock's K and C, a bootstrap cone about the axis,
 and the Fisher mean of measured lines (hinges, lineations) with its angle to the axis.
 Rows that cannot be read are listed on stderr (row numbers: header = row 0).
@@ -77,8 +80,8 @@ export async function runAnalyze(argv: readonly string[], io: CliIo): Promise<nu
   if (args.positionals.length !== 1) throw new UsageError(`analyze takes one input file, got ${args.positionals.length} (see foldlens analyze --help)`);
   const bootstrap = o.bootstrap === undefined ? undefined : wholeNumber(o.bootstrap, '--bootstrap', 0);
   const seed = o.seed === undefined ? undefined : wholeNumber(o.seed, '--seed', Number.MIN_SAFE_INTEGER);
-  const planeKinds = kindList(o['plane-kinds'], '--plane-kinds', isPlaneKind, PLANE_KINDS);
-  const lineKinds = kindList(o['line-kinds'], '--line-kinds', isLineKind, LINE_KINDS);
+  const planeKinds = kindList(o['plane-kinds'], '--plane-kinds', isPlaneKind, PLANE_KINDS, DEFAULT_FOLDED_KINDS);
+  const lineKinds = kindList(o['line-kinds'], '--line-kinds', isLineKind, LINE_KINDS, DEFAULT_AXIS_LINE_KINDS);
   const polygons = o.within === undefined ? undefined : await readArea(o.within, io);
 
   const [path] = args.positionals;
@@ -89,10 +92,12 @@ export async function runAnalyze(argv: readonly string[], io: CliIo): Promise<nu
   const usable = input.stations.filter(isUsable);
   const selection = polygons ? selectWithin(usable, polygons) : undefined;
   const chosen = selection ? selection.inside : usable;
-  const planeStations = chosen.filter((s) => s.kind !== undefined && isPlaneKind(s.kind) && planeKinds.includes(s.kind) && s.plane);
-  const lineStations = chosen.filter((s) => s.kind !== undefined && isLineKind(s.kind) && lineKinds.includes(s.kind) && s.line);
-  const planes: PlaneMeasurement[] = planeStations.map((s) => s.plane!);
-  const lines: Line[] = lineStations.map((s) => ({ trend: s.line!.trend, plunge: s.line!.plunge }));
+  // The same choice of measurements as the map's net panel (core/foldInput.ts).
+  const input2 = foldInputFromStations(chosen, undefined, { planeKinds, lineKinds });
+  const planeStations = Array.from(input2.planeIds, (i) => chosen[i]);
+  const lineStations = Array.from(input2.lineIds, (i) => chosen[i]);
+  const planes: PlaneMeasurement[] = input2.planes;
+  const lines: Line[] = input2.lines.map(({ trend, plunge }) => ({ trend, plunge }));
 
   const analysis = analyzeFold({ planes, ...(lines.length > 0 && { lines }) }, { ...(bootstrap !== undefined && { bootstrap }), ...(seed !== undefined && { seed }) });
   const report: AnalyzeReport = {
@@ -124,8 +129,8 @@ function wholeNumber(text: string, option: string, min: number): number {
   return v;
 }
 
-function kindList(text: string | undefined, option: string, accept: (k: string) => boolean, all: readonly MeasurementKind[]): readonly MeasurementKind[] {
-  if (text === undefined) return all;
+function kindList(text: string | undefined, option: string, accept: (k: string) => boolean, all: readonly MeasurementKind[], defaults: readonly MeasurementKind[]): readonly MeasurementKind[] {
+  if (text === undefined) return defaults;
   return text.split(',').map((word) => {
     const k = normalizeKind(word);
     if (k === undefined || !accept(k)) throw new UsageError(`${option}: "${word.trim()}" is not one of ${all.join(', ')}`);

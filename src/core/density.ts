@@ -1,3 +1,4 @@
+import type { NetKind } from './netProjection';
 /**
  * The grid over the net on which orientation density is evaluated, and what a density
  * evaluation returns. The counting itself lives in kamb.ts (Kamb 1959 counting) and
@@ -24,8 +25,6 @@ import { RAD, acosClamped, asinClamped } from './math';
 import { lineToVector } from './vectors';
 import type { Line } from './types';
 
-/** Which net the grid is laid over. */
-export type NetKind = 'equal-area' | 'equal-angle';
 
 /** Which density estimate filled the grid. */
 export type DensityMethod = 'kamb' | 'exponential';

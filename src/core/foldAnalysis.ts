@@ -238,7 +238,8 @@ export function analyzeFoldPoles(poles: ArrayLike<number>, options: FoldAnalysis
 
 function summarizeLines(lines: readonly Line[], axis: Vec3 | null, warnings: FoldWarning[]): FoldLineSummary {
   const f = fisherLines(lines);
-  if (f.n < 2) warnings.push({ code: 'few-lines', message: `Only ${f.n} line${f.n === 1 ? '' : 's'}: a Fisher cone of confidence needs at least 2.` });
+  // No lines at all is not a problem to warn about (most selections have none); one line is.
+  if (f.n === 1) warnings.push({ code: 'few-lines', message: `Only ${f.n} line${f.n === 1 ? '' : 's'}: a Fisher cone of confidence needs at least 2.` });
   return {
     n: f.n,
     mean: f.mean,

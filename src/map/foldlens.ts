@@ -95,6 +95,7 @@ export class Foldlens extends EventTarget {
     this.selection.begin(combine);
     this.selection.setShape(ring.flatMap(([lon, lat]) => lonLatToMercator(lon, lat)));
     this.lastShape = ring.map((p) => [p[0], p[1]] as const);
+    this.drawer.showOutline(this.lastShape);
     this.selection.resync();
     this.publish(true);
   }
@@ -109,6 +110,7 @@ export class Foldlens extends EventTarget {
     });
     this.selection.setSelected(flags);
     this.lastShape = null;
+    this.drawer.showOutline(null);
     this.publish(true);
   }
 
@@ -123,6 +125,7 @@ export class Foldlens extends EventTarget {
   clearSelection(): void {
     this.selection.clear();
     this.lastShape = null;
+    this.drawer.showOutline(null);
     this.publish(true);
   }
 

@@ -87,7 +87,7 @@ export class FoldlensOverlay extends EventTarget {
 
   /** Every layer id Foldlens owns, bottom to top. */
   get layerIds(): string[] {
-    return (['dots', 'symbols', 'labels', 'selection', 'selected-symbols', 'hit'] as const).map((r) => this.layerId(r));
+    return (['dots', 'labels', 'symbols', 'selection', 'selected-symbols', 'hit'] as const).map((r) => this.layerId(r));
   }
 
   /** Replaces the stations on the map. Unusable stations are not drawn (they remain in the caller's data). */
@@ -264,23 +264,6 @@ export class FoldlensOverlay extends EventTarget {
       },
     });
     add({
-      id: this.layerId('symbols'),
-      type: 'symbol',
-      source: this.sourceId,
-      layout: {
-        visibility: visible(o.show.symbols),
-        'icon-image': ['get', 'img'],
-        'icon-rotate': ['get', 'rot'],
-        'icon-rotation-alignment': 'map',
-        'icon-pitch-alignment': 'map',
-        'icon-size': size,
-        'icon-padding': 0,
-        // At small scales symbols thin out by collision; the dots below keep every station visible.
-        'icon-allow-overlap': ['step', ['zoom'], false, 15, true],
-        'icon-ignore-placement': true,
-      },
-    });
-    add({
       id: this.layerId('labels'),
       type: 'symbol',
       source: this.sourceId,
@@ -295,6 +278,23 @@ export class FoldlensOverlay extends EventTarget {
         'icon-offset': [14, 11],
         'icon-padding': 1,
         'icon-allow-overlap': false,
+      },
+    });
+    add({
+      id: this.layerId('symbols'),
+      type: 'symbol',
+      source: this.sourceId,
+      layout: {
+        visibility: visible(o.show.symbols),
+        'icon-image': ['get', 'img'],
+        'icon-rotate': ['get', 'rot'],
+        'icon-rotation-alignment': 'map',
+        'icon-pitch-alignment': 'map',
+        'icon-size': size,
+        'icon-padding': 0,
+        // At small scales symbols thin out by collision; the dots below keep every station visible.
+        // Symbols sit above the labels, so they are placed first and labels fit around them.
+        'icon-allow-overlap': ['step', ['zoom'], false, 15, true],
       },
     });
     add({

@@ -40,6 +40,8 @@ export class SelectionDrawer extends EventTarget {
   private pointerId = -1;
   private dragPanWasOn = true;
   private hover: [number, number] | null = null;
+  /** The last finished shape, drawn until replaced or cleared. */
+  private finished: Array<[number, number]> = [];
 
   constructor(map: MapLibreMap, idPrefix = 'foldlens') {
     super();
@@ -107,6 +109,12 @@ export class SelectionDrawer extends EventTarget {
     this.ring = [];
     this.screen = [];
     this.draw();
+  }
+
+  /** Shows a finished outline (lon/lat ring), or none; e.g. a restored selection, or clear. */
+  showOutline(ring: ReadonlyArray<readonly [number, number]> | null): void {
+    this.finished = ring ? ring.map((p) => [p[0], p[1]] as [number, number]) : [];
+    if (!this.active) this.draw();
   }
 
   /** Removes handlers, layers and the source. */
@@ -242,6 +250,7 @@ export class SelectionDrawer extends EventTarget {
   private finish(): void {
     this.active = false;
     this.hover = null;
+    this.finished = this.ring.slice();
     this.emit('shapeend', 0);
     this.ring = [];
     this.screen = [];
@@ -256,7 +265,7 @@ export class SelectionDrawer extends EventTarget {
   private draw(): void {
     const source = this.map.getSource(this.sourceId) as GeoJSONSource | undefined;
     if (!source) return;
-    const ring = this.hover && this.tool === 'polygon' ? [...this.ring, this.lngLat(this.hover)] : this.ring;
+    const ring = !this.active ? this.finished : this.hover && this.tool === 'polygon' ? [...this.ring, this.lngLat(this.hover)] : this.ring;
     const features: Array<Feature<Polygon | LineString>> = [];
     if (ring.length >= 3) features.push({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [[...ring, ring[0]]] } });
     else if (ring.length === 2) features.push({ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: ring } });

@@ -9,8 +9,8 @@ import {
   netGridNodes,
   netInverse,
   readAxes,
-  type NetKind,
 } from '../../src/core/density';
+import type { NetKind } from '../../src/core/netProjection';
 import { bucketAxes, capChord, sumAllAxes, sumNearAxis } from '../../src/core/sphereBuckets';
 import { expectClose, expectAzimuth } from '../helpers/tolerance';
 

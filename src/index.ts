@@ -1,0 +1,30 @@
+/**
+ * Foldlens: fold axes, equal-area nets and down-plunge profiles on any MapLibre GL JS map.
+ *
+ * @example
+ * import { Map } from 'maplibre-gl';
+ * import { attachFoldlens, configureMapLibre } from 'foldlens';
+ * import 'foldlens/styles/foldlens.css';
+ * configureMapLibre();
+ * const map = new Map({ container: 'map', style: myStyle });
+ * const foldlens = attachFoldlens(map);
+ * map.on('load', () => foldlens.setStations(stations));
+ */
+export * from './core/index';
+export { configureMapLibre } from './map/maplibreSetup';
+export { Foldlens, attachFoldlens, type SelectionChangeDetail } from './map/foldlens';
+export { FoldlensOverlay, defaultOverlayOptions, type FoldlensOverlayOptions, type StationEventDetail } from './map/foldlensOverlay';
+export { SelectionDrawer, type SelectionToolName, type ShapeEventDetail } from './map/selectionDrawer';
+export { symbolFor, KIND_COLORS, KIND_LABELS, type SymbolChoice } from './map/symbolCatalog';
+export { legendEntries, type LegendEntry } from './map/legendEntries';
+export { stationFeatures } from './map/stationFeatures';
+export { AnalysisClient } from './worker/analysisClient';
+export { runAnalysisJob, type AnalysisJob, type AnalysisJobResult } from './worker/analysisJob';
+export { readCsv, decodeText, CsvError, type CsvTable, type CsvRow } from './io/csvTable';
+export { detectColumns, parseColumnMapping, type ColumnMapping, type ColumnDetection } from './io/columns';
+export { readStations, readStation, type StationReadOptions } from './io/readStations';
+export { readGeoJsonStations } from './io/readGeoJson';
+export { stationsToCsv, stationsToGeoJson } from './io/writeStations';
+export { FoldlensLegend } from './components/foldlens-legend';
+export { FoldlensStationCard } from './components/foldlens-station-card';
+export { FoldlensToolbar } from './components/foldlens-toolbar';
