@@ -37,10 +37,10 @@ export const ANALYZE_OPTIONS: readonly OptionSpec[] = [
 export const ANALYZE_HELP = `Usage: foldlens analyze <file.csv|file.geojson> [options]
 
 Finds the fold axis of the usable planes of the folded surface (bedding unless
---plane-kinds says otherwise; cleavage and other axial-planar fabrics are left out) as the
-pole of their best-fit girdle, with the
-eigenvalues of the orientation tensor, Woodcock's K and C, a bootstrap cone about the axis,
-and the Fisher mean of measured lines (hinges, lineations) with its angle to the axis.
+--plane-kinds says otherwise; cleavage and other axial-planar fabrics are left out) as
+the pole of their best-fit girdle, with the eigenvalues of the orientation tensor,
+Woodcock's K and C, a bootstrap cone about the axis, and the Fisher mean of measured
+lines (hinges, lineations) with its angle to the axis.
 Rows that cannot be read are listed on stderr (row numbers: header = row 0).
 
 Exit codes: 0 all rows read; 1 some rows could not be read, or no plane to analyse;

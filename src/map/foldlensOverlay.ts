@@ -25,7 +25,7 @@ export const defaultOverlayOptions: FoldlensOverlayOptions = {
   idPrefix: 'foldlens',
   show: { symbols: true, labels: true, dots: true },
   symbolScale: 1,
-  labelMinZoom: 12.5,
+  labelMinZoom: 14,
   dotColor: '#1d2326',
   selectionColor: '#e8590c',
 };
@@ -292,9 +292,11 @@ export class FoldlensOverlay extends EventTarget {
         'icon-pitch-alignment': 'map',
         'icon-size': size,
         'icon-padding': 0,
-        // At small scales symbols thin out by collision; the dots below keep every station visible.
-        // Symbols sit above the labels, so they are placed first and labels fit around them.
+        // Below zoom 14 symbols thin out by collision (the dots below keep every station visible);
+        // from 14 they stop blocking labels (a symbol's square box would cover its own label), and
+        // from 15 every symbol is drawn.
         'icon-allow-overlap': ['step', ['zoom'], false, 15, true],
+        'icon-ignore-placement': ['step', ['zoom'], false, 14, true],
       },
     });
     add({
