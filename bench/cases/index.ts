@@ -5,5 +5,6 @@ import type { BenchCase } from '../harness';
 import { kambCase } from './kamb';
 import { exponentialCase, exponentialCoarseCase } from './exponential';
 import { girdleCase } from './girdle';
+import { profileCase } from './profile';
 
-export const benchCases: readonly BenchCase[] = [kambCase, exponentialCoarseCase, exponentialCase, girdleCase];
+export const benchCases: readonly BenchCase[] = [kambCase, exponentialCoarseCase, exponentialCase, girdleCase, profileCase];

@@ -5,6 +5,7 @@ import { loadEpsgFromIndex } from '../io/epsgNode';
 import { UsageError } from './args';
 import { ANALYZE_HELP, runAnalyze } from './analyze';
 import { CONVERT_HELP, runConvert } from './convert';
+import { PROFILE_HELP, runProfile } from './profile';
 import type { CliIo } from './input';
 
 /**
@@ -23,6 +24,7 @@ export const MAIN_HELP = `Usage: foldlens <command> [options]
 Commands:
   convert <file.csv> --to <notation>   write the table back with normalised attitudes added
   analyze <file.csv|file.geojson>      fold axis, girdle and fabric of the planes (and lines)
+  profile <file.csv> --axis <t/p>      down-plunge profile of stations and linework (CSV, JSON, SVG)
 
 Run foldlens <command> --help for the options of a command.
 Exit codes: 0 all went well; 1 some rows could not be read; 2 usage or file error.
@@ -41,16 +43,19 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return await runConvert(rest, io);
       case 'analyze':
         return await runAnalyze(rest, io);
+      case 'profile':
+        return await runProfile(rest, io);
       case undefined:
       case '--help':
       case '-h':
       case 'help':
         if (command === 'help' && rest[0] === 'convert') io.stdout.write(CONVERT_HELP);
         else if (command === 'help' && rest[0] === 'analyze') io.stdout.write(ANALYZE_HELP);
+        else if (command === 'help' && rest[0] === 'profile') io.stdout.write(PROFILE_HELP);
         else (command === undefined ? io.stderr : io.stdout).write(MAIN_HELP);
         return command === undefined ? 2 : 0;
       default:
-        throw new UsageError(`unknown command "${command}": expected convert or analyze`);
+        throw new UsageError(`unknown command "${command}": expected convert or analyze or profile`);
     }
   } catch (e) {
     if (e instanceof UsageError) {
