@@ -8,6 +8,7 @@ import { analyzeFoldPoles } from '../core/foldAnalysis';
 import { describeProblem, isUsable, type Station } from '../core/station';
 import { foldInputFromStations } from '../core/foldInput';
 import { lineToVector, poleOf } from '../core/vectors';
+import { projectLine } from '../core/netProjection';
 import { KIND_LABELS } from '../map/symbolCatalog';
 import { buildStyle, bounds, truth } from '../../sample-maps/korvane/index';
 import { loadSampleStations } from './sampleStations';
@@ -107,16 +108,21 @@ foldlens.addEventListener('selectionchange', (e) => {
   domainsPanel.canSave = d.shape !== null && d.indices.length > 0;
   void analyseSelection(d.indices, d.final);
 });
-foldlens.addEventListener('stationclick', (e) => {
-  card.station = (e as CustomEvent<StationEventDetail>).detail.station;
-});
+/** Shows a station's details, with where it plots on the net as it is drawn now. */
+function inspect(station: Station | null): void {
+  card.station = station;
+  const line = station?.plane ? poleOf(station.plane) : station?.line;
+  card.netPosition = line ? projectLine(line, netKind) : null;
+}
+
+foldlens.addEventListener('stationclick', (e) => inspect((e as CustomEvent<StationEventDetail>).detail.station));
 foldlens.addEventListener('stationhover', (e) => {
   net.highlight = (e as CustomEvent<StationEventDetail>).detail.index;
 });
 net.addEventListener('foldlens-net-hover', (e) => foldlens.overlay.setHighlight((e as CustomEvent<{ index: number }>).detail.index));
 net.addEventListener('foldlens-net-pick', (e) => {
   const i = (e as CustomEvent<{ index: number }>).detail.index;
-  if (i >= 0) card.station = stations[i];
+  if (i >= 0) inspect(stations[i]);
 });
 net.addEventListener('foldlens-net-options', (e) => {
   const d = (e as CustomEvent<{ net: typeof netKind; contours: typeof contourMethod }>).detail;
@@ -125,7 +131,14 @@ net.addEventListener('foldlens-net-options', (e) => {
   contourMethod = d.contours;
   void analyseSelection(lastSelection, true);
 });
-card.addEventListener('foldlens-close', () => (card.station = null));
+card.addEventListener('foldlens-close', () => inspect(null));
+
+const themeButton = $<HTMLButtonElement>('#theme');
+themeButton.addEventListener('click', () => {
+  const dark = document.documentElement.dataset.theme !== 'dark';
+  document.documentElement.dataset.theme = dark ? 'dark' : 'light';
+  themeButton.setAttribute('aria-pressed', String(dark));
+});
 legend.addEventListener('foldlens-kind-filter', (e) => foldlens.overlay.setVisibleKinds((e as CustomEvent<{ visibleKinds: string[] | null }>).detail.visibleKinds));
 toolbar.addEventListener('foldlens-tool', (e) => {
   const tool = (e as CustomEvent<{ tool: 'pan' | 'lasso' | 'polygon' | 'rectangle' }>).detail.tool;

@@ -97,7 +97,7 @@ const SYNONYMS: Readonly<Record<Field, readonly string[]>> = {
   y: ['y', 'northing', 'north', 'n', 'ycoord', 'ycoordinate', 'utmn', 'utmnorthing', 'mapy', 'projy'],
   lon: ['lon', 'lng', 'long', 'longitude', 'londd', 'longdd', 'longitudedd', 'decimallongitude', 'wgs84lon'],
   lat: ['lat', 'latitude', 'latdd', 'latitudedd', 'decimallatitude', 'wgs84lat'],
-  elevation: ['z', 'elev', 'elevation', 'height', 'alt', 'altitude', 'zcoord', 'rl', 'masl'],
+  elevation: ['z', 'elev', 'elevation', 'height', 'alt', 'altitude', 'zcoord', 'rl', 'masl', 'elevationm', 'elevm', 'heightm', 'zm', 'altm'],
   date: ['date', 'datetime', 'measured', 'datemeasured', 'surveydate', 'observed', 'observationdate', 'fielddate', 'timestamp'],
   notes: ['notes', 'note', 'comment', 'comments', 'remarks', 'remark', 'description', 'desc', 'memo'],
   overturned: ['overturned', 'ot', 'inverted', 'isoverturned', 'overturnedflag'],

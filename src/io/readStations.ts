@@ -20,6 +20,7 @@ import { azimuthDifference } from '../core/math';
 import type { ColumnMapping, Field } from './columns';
 import type { CsvRow, CsvTable } from './csvTable';
 import { normalizeKind } from './kinds';
+import { flagSwappedCoordinates } from './swappedCoordinates';
 import { CrsError, describeArea, inArea, lonLatProblem, toLonLat, type Crs } from './crs';
 import { DeclinationError, WMM_SPAN, convergenceCorrection, correctAzimuth, magneticCorrection, parseIsoDate, userDeclination } from './declination';
 
@@ -77,7 +78,7 @@ export interface GivenLocation {
  * readStations(table, detectColumns(table.headers).mapping)[0].plane // {dipDirection: 120, dip: 40}
  */
 export function readStations(table: CsvTable, mapping: ColumnMapping, options: StationReadOptions = {}): Station[] {
-  return table.rows.map((row) => readStation(row, mapping, options));
+  return flagSwappedCoordinates(table.rows.map((row) => readStation(row, mapping, options)));
 }
 
 /**

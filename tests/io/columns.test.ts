@@ -27,6 +27,7 @@ describe('detectColumns(headers)', () => {
     { header: 'Lat', field: 'lat' },
     { header: 'Elev [m]', field: 'elevation' },
     { header: 'Z', field: 'elevation' },
+    { header: 'elevation_m', field: 'elevation' }, // a unit written into the name, as in the sample map (common practice)
     { header: 'Date', field: 'date' },
     { header: 'Remarks', field: 'notes' },
     { header: 'OT', field: 'overturned' },

@@ -198,3 +198,19 @@ describe('readStations never throws on arbitrary cells (fuzz)', () => {
     expect(parseNumberCell('0x10')).toBeUndefined();
   });
 });
+
+describe('the sample map through the importer', () => {
+  it('readStations(sample stations.csv) keeps every row, reads elevation_m, and flags exactly the planted bad rows', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { readCsv } = await import('../../src/io/csvTable');
+    const { detectColumns } = await import('../../src/io/columns');
+    const { readStations } = await import('../../src/io/readStations');
+    const truth = JSON.parse(readFileSync('sample-maps/korvane/truth.json', 'utf8')) as { plantedBadRows: unknown[]; counts: { stations?: number } };
+    const table = readCsv(readFileSync('sample-maps/korvane/stations.csv', 'utf8'));
+    const stations = readStations(table, detectColumns(table.headers).mapping);
+    expect(stations.length).toBe(table.rows.length);
+    expect(stations.filter((s) => s.problems.length > 0).length).toBe(truth.plantedBadRows.length);
+    const good = stations.filter((s) => s.problems.length === 0);
+    expect(good.every((s) => typeof s.elevation === 'number' && s.elevation > 600 && s.elevation < 1000)).toBe(true);
+  });
+});
