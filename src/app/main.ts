@@ -1,5 +1,5 @@
 import 'maplibre-gl/dist/maplibre-gl.css';
-import { Map as MapLibreMap, NavigationControl, ScaleControl } from 'maplibre-gl';
+import { Map as MapLibreMap, NavigationControl, ScaleControl, getWorkerUrl } from 'maplibre-gl';
 import { configureMapLibre } from '../map/maplibreSetup';
 import { attachFoldlens, type SelectionChangeDetail } from '../map/foldlens';
 import type { StationEventDetail } from '../map/foldlensOverlay';
@@ -12,6 +12,7 @@ import { projectLine } from '../core/netProjection';
 import { KIND_LABELS } from '../map/symbolCatalog';
 import { buildStyle, bounds, truth } from '../../sample-maps/korvane/index';
 import { loadSampleStations } from './sampleStations';
+import { setUpOffline } from './offline';
 import '../components/foldlens-toolbar';
 import '../components/foldlens-legend';
 import '../components/foldlens-station-card';
@@ -24,6 +25,7 @@ import { newDomainId, nextDomainName, type Domain } from '../core/domain';
 import { loadDomains, saveDomains } from './domainStore';
 
 configureMapLibre();
+const saveForOffline = setUpOffline(document.querySelector('#offline-status') as HTMLElement, () => [getWorkerUrl(), analysis.workerScriptUrl ?? '']);
 
 const $ = <T extends Element>(selector: string) => document.querySelector(selector) as T;
 const toolbar = $<HTMLElementTagNameMap['foldlens-toolbar']>('#toolbar');
@@ -235,7 +237,10 @@ map.on('load', () => {
   showProblems(stations);
   setDomains(domains);
   $<HTMLElement>('#dataset-label').textContent = `${truth.district} — synthetic demo data, ${stations.length} rows`;
-  map.once('idle', () => document.body.setAttribute('data-map-ready', 'true'));
+  map.once('idle', () => {
+    document.body.setAttribute('data-map-ready', 'true');
+    saveForOffline();
+  });
 });
 
 Object.assign(window, { foldlensDemo: { map, foldlens, get stations() { return stations; } } });

@@ -1,6 +1,6 @@
 import { runAnalysisJob, type AnalysisJob, type AnalysisJobResult } from './analysisJob';
 
-type Reply = { ok: true; result: AnalysisJobResult } | { ok: false; id: number; message: string };
+type Reply = { ok: true; result: AnalysisJobResult } | { ok: false; id: number; message: string } | { type: 'foldlens-worker-ready'; url: string };
 
 /**
  * Sends analysis jobs to a web worker, newest first: a job that is overtaken by a newer one
@@ -11,6 +11,8 @@ export class AnalysisClient {
   private worker: Worker | null = null;
   private nextId = 1;
   private latest = 0;
+  /** URL of the worker script once it has started (for offline caching); null before or without a worker. */
+  workerScriptUrl: string | null = null;
   private readonly pending = new Map<number, { resolve: (r: AnalysisJobResult | null) => void; reject: (e: Error) => void }>();
 
   constructor() {
@@ -48,6 +50,10 @@ export class AnalysisClient {
   }
 
   private onReply(reply: Reply): void {
+    if ('type' in reply) {
+      this.workerScriptUrl = reply.url;
+      return;
+    }
     const id = reply.ok ? reply.result.id : reply.id;
     const p = this.pending.get(id);
     if (!p) return;
