@@ -58,7 +58,7 @@ let lastSelection: Int32Array = new Int32Array(0);
 function showProblems(all: readonly Station[]): void {
   const bad = all.filter((s) => s.problems.length > 0);
   $<HTMLElement>('#problems-summary').textContent = bad.length
-    ? `${bad.length} row${bad.length === 1 ? '' : 's'} could not be used (kept, not drawn)`
+    ? `${bad.length} row${bad.length === 1 ? '' : 's'} could not be used (kept, not drawn; rows count data rows, the header is row 0)`
     : 'Every row was read';
   const list = $<HTMLOListElement>('#problems-list');
   list.replaceChildren(
@@ -89,11 +89,24 @@ async function analyseSelection(indices: Int32Array, final: boolean): Promise<vo
   net.poleIds = poleIds;
   net.planes = planes;
   net.lines = lines;
-  net.selectionLabel = indices.length ? `${indices.length} stations selected: ${planes.length} bedding, ${lines.length} hinges and lineations` : 'No selection';
+  const others = indices.length - planes.length - lines.length;
+  net.selectionLabel = indices.length
+    ? `${indices.length} stations selected: ${planes.length} bedding analysed, ${lines.length} ${lines.length === 1 ? 'hinge or lineation' : 'hinges and lineations'} compared${others ? `, ${others} other (cleavage, joints…) not used` : ''}`
+    : 'No selection';
   hint.hidden = indices.length > 0;
+  if (indices.length === 0) {
+    net.analysis = null;
+    net.density = null;
+    net.description = null;
+    document.body.dataset.analysisReady = String(Date.now());
+    return;
+  }
   if (!final) {
-    // While drawing: the quick fit without bootstrap or density, straight from the poles.
+    // While drawing: the quick fit without bootstrap or density, straight from the poles; the last
+    // selection's contours and fold description would be wrong for this one, so they go.
     net.analysis = analyzeFoldPoles(poles, { bootstrap: 0, lines });
+    net.density = null;
+    net.description = null;
     return;
   }
   const result = await analysis.run({ planes, lines, bootstrap: 500, seed: 1, density: contourMethod, net: netKind });
@@ -113,6 +126,7 @@ foldlens.addEventListener('selectionchange', (e) => {
 /** Shows a station's details, with where it plots on the net as it is drawn now. */
 function inspect(station: Station | null): void {
   card.station = station;
+  if (station) card.scrollIntoView({ block: 'nearest' });
   const line = station?.plane ? poleOf(station.plane) : station?.line;
   card.netPosition = line ? projectLine(line, netKind) : null;
 }
@@ -195,6 +209,11 @@ domainsPanel.addEventListener('foldlens-domain-edit', (e) => {
   const id = (e as CustomEvent<{ id: string | null }>).detail.id;
   domainLayer.edit(id);
   domainsPanel.editingId = id;
+  // Vertices are dragged with the pointer, so the drawing tools step aside while editing.
+  if (id) {
+    foldlens.setTool(null);
+    toolbar.tool = 'pan';
+  }
   const d = domains.find((x) => x.id === id);
   if (d) foldlens.selectWithin(d.ring);
 });

@@ -51,7 +51,8 @@ export class FoldlensDomains extends LitElement {
     th { text-align: left; font-weight: 600; color: var(--fl-muted, #5b6469); font-size: 12px; padding: 2px 4px; }
     td { padding: 3px 4px; border-top: 1px solid var(--fl-border, #c9cdc8); vertical-align: middle; }
     td.name { overflow-wrap: anywhere; }
-    td.actions { white-space: nowrap; text-align: right; }
+    td.actions { text-align: right; }
+    td.actions button { padding: 2px 6px; margin: 1px 0; font-size: 12px; }
     .empty, .result { color: var(--fl-muted, #5b6469); }
     .compare { display: flex; flex-wrap: wrap; gap: 6px; align-items: center; margin-top: 8px; }
     .undo { margin-top: 6px; display: flex; gap: 8px; align-items: center; }

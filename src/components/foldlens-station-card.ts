@@ -60,7 +60,7 @@ export class FoldlensStationCard extends LitElement {
       <h4>Corrections</h4>
       <div>${s.corrections?.length ? s.corrections.map((c) => html`<div>${c.type}: ${c.degrees >= 0 ? '+' : ''}${c.degrees.toFixed(2)}° (${c.source})</div>`) : 'none applied'}</div>
       <h4>Position</h4>
-      <div>${s.lon !== undefined && s.lat !== undefined ? `${s.lat.toFixed(6)}°, ${s.lon.toFixed(6)}°` : 'no position'}${s.elevation !== undefined ? ` · ${s.elevation.toFixed(1)} m` : ''}</div>
+      <div>${s.lon !== undefined && s.lat !== undefined ? `${Math.abs(s.lat).toFixed(6)}° ${s.lat >= 0 ? 'N' : 'S'}, ${Math.abs(s.lon).toFixed(6)}° ${s.lon >= 0 ? 'E' : 'W'}` : 'no position'}${s.elevation !== undefined ? ` · ${s.elevation.toFixed(1)} m` : ''}</div>
       ${this.netPosition ? html`<div>On the net: x ${this.netPosition.x.toFixed(3)}, y ${this.netPosition.y.toFixed(3)}</div>` : nothing}
       <h4>As read (row ${s.row})</h4>
       <dl part="fields">

@@ -49,7 +49,11 @@ export class Foldlens extends EventTarget {
     this.drawer.addEventListener('shapeend', this.onShape as EventListener);
     this.drawer.addEventListener('shapecancel', this.onShape as EventListener);
     for (const type of ['stationclick', 'stationhover']) {
-      this.overlay.addEventListener(type, (e) => this.dispatchEvent(new CustomEvent(type, { detail: (e as CustomEvent).detail })));
+      this.overlay.addEventListener(type, (e) => {
+        // The click that ends a lasso or box is part of the drawing, not a request to inspect a station.
+        if (type === 'stationclick' && this.drawer.currentTool) return;
+        this.dispatchEvent(new CustomEvent(type, { detail: (e as CustomEvent).detail }));
+      });
     }
   }
 
@@ -165,7 +169,9 @@ export class Foldlens extends EventTarget {
         return;
       case 'shapeend':
         this.selection.resync();
-        this.lastShape = this.drawing.slice();
+        // Only a shape that replaced the selection outlines it; after Add or Remove no single ring does.
+        this.lastShape = d.combine === 'replace' ? this.drawing.slice() : null;
+        if (!this.lastShape) this.drawer.showOutline(null);
         this.publish(true);
         return;
       case 'shapecancel':

@@ -26,6 +26,21 @@ export interface AnalysisJobResult {
   readonly elapsedMs: number;
 }
 
+/** Warnings after which limbs, interlimb angle and fold class would describe noise, not a fold. */
+const NO_DESCRIPTION: ReadonlySet<string> = new Set(['no-planes', 'few-planes', 'parallel-planes', 'nearly-parallel-planes', 'axis-undefined', 'cluster-not-girdle', 'uniform-spread']);
+
+/**
+ * Describes the fold (limbs, interlimb angle, axial plane, Fleuty class) only when the poles
+ * outline a girdle with a defined axis; otherwise says why not.
+ */
+export function describeIfGirdle(planes: readonly PlaneMeasurement[], analysis: FoldAnalysis): FoldDescription | FoldDescriptionFailure {
+  const blocking = analysis.warnings.find((w) => NO_DESCRIPTION.has(w.code));
+  if (blocking || !analysis.axis || planes.length < 3) {
+    return { ok: false, reason: `No fold description: ${blocking ? blocking.message : 'it needs at least three planes and a defined axis.'}` };
+  }
+  return describeFold(planes, { axis: analysis.axis });
+}
+
 /**
  * Runs the full analysis of a selection: fold analysis with bootstrap cone, fold description
  * and the density grid. Pure; the worker and the CLI call the same function, so the panel and
@@ -35,8 +50,7 @@ export interface AnalysisJobResult {
 export function runAnalysisJob(job: AnalysisJob): AnalysisJobResult {
   const t0 = performance.now();
   const analysis = analyzeFold({ planes: job.planes, lines: job.lines }, { bootstrap: job.bootstrap, seed: job.seed });
-  const description: FoldDescription | FoldDescriptionFailure =
-    job.planes.length >= 3 && analysis.axis ? describeFold(job.planes, { axis: analysis.axis }) : { ok: false, reason: 'A fold description needs at least three planes and a defined axis.' };
+  const description = describeIfGirdle(job.planes, analysis);
   let density: DensityGrid | null = null;
   if (job.density !== 'off' && job.planes.length > 0) {
     const poles = new Float64Array(job.planes.length * 3);

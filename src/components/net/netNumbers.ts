@@ -147,8 +147,8 @@ export function netDisplayRows(input: NetNumbersInput): NetDisplayRow[] {
   const interlimb = formatAngle(d?.interlimbAngle, r.description, 0);
   row('interlimb', 'Interlimb angle', 'angle between the limbs in the profile plane (Fleuty 1964 class)', interlimb.reason === null ? { text: `${interlimb.text} (${d?.classes.interlimb})`, reason: null } : interlimb);
   row('fleuty', 'Fleuty class', 'hinge plunge and axial surface classes (Fleuty 1964)', d ? { text: [d.classes.hingePlunge, d.classes.axialSurface ?? 'axial surface not defined', d.classes.interlimb].join(', '), reason: null } : { text: DASH, reason: r.description });
-  row('axialPlane', 'Axial plane', 'dip direction/dip of the plane bisecting the limbs', formatPlane(d?.axialPlane, r.axialPlane));
-  row('limbs', 'Limb maxima', 'dip direction/dip of each limb mean', joinFormatted([formatPlane(d?.limbs[0].plane, r.description), formatPlane(d?.limbs[1].plane, r.description)], ' · '));
+  row('axialPlane', 'Axial plane (limb bisector)', 'dip direction/dip of the plane through the axis bisecting the limb maxima; an inclined or asymmetric fold\'s axial surface can differ — compare with axial-planar cleavage', formatPlane(d?.axialPlane, r.axialPlane));
+  row('limbs', 'Limb maxima (planes)', 'dip direction/dip of the plane of each limb\'s mean pole', joinFormatted([formatPlane(d?.limbs[0].plane, r.description), formatPlane(d?.limbs[1].plane, r.description)], ' · '));
   row('density', 'Contours', 'density method and contour levels in multiples of sigma', densityText(input.density ?? null, r.density));
   return rows;
 }
