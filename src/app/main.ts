@@ -13,6 +13,11 @@ import { KIND_LABELS } from '../map/symbolCatalog';
 import { buildStyle, bounds, truth } from '../../sample-maps/korvane/index';
 import { loadSampleStations } from './sampleStations';
 import { setUpOffline } from './offline';
+import '../components/foldlens-import';
+import '../components/foldlens-table';
+import { reportOf } from '../components/import/importReport';
+import { emptyProject, withDataset, type FoldlensProject, type ProjectDataset } from '../io/projectFile';
+import { Autosave, openProjectStore } from '../io/projectStore';
 import '../components/foldlens-toolbar';
 import '../components/foldlens-legend';
 import '../components/foldlens-station-card';
@@ -246,16 +251,76 @@ domainLayer.addEventListener('domainclick', (e) => {
   if (d) foldlens.selectWithin(d.ring);
 });
 
-map.on('load', () => {
-  stations = loadSampleStations();
+// ---- The user's own data: import, table, autosaved project ------------------------------------
+
+const importEl = $<HTMLElementTagNameMap['foldlens-import']>('#import');
+const table = $<HTMLElementTagNameMap['foldlens-table']>('#table');
+const store = openProjectStore();
+const autosave = new Autosave(store);
+let project: FoldlensProject = emptyProject('Field data');
+
+/** Puts a set of stations on the map and in every panel. */
+function showStations(next: Station[], label: string): void {
+  stations = next;
   foldlens.setStations(stations);
   legend.stations = stations;
-  card.station = null;
+  inspect(null);
   const kinds = [...new Set(stations.filter(isUsable).map((s) => s.kind!))];
   toolbar.kinds = kinds.map((kind) => ({ kind, label: KIND_LABELS[kind] ?? kind }));
   showProblems(stations);
+  $<HTMLElement>('#dataset-label').textContent = label;
+}
+
+function showProject(p: FoldlensProject): void {
+  project = p;
+  const d: ProjectDataset | null = p.datasets.at(-1) ?? null;
+  table.data = d;
+  importEl.current = d && reportOf(d);
+  if (d) showStations([...d.stations], `${d.name} — ${d.stations.length} rows (your data, saved in this browser)`);
+}
+
+function showSample(): void {
+  table.data = null;
+  showStations(loadSampleStations(), `${truth.district} — synthetic demo data`);
+}
+
+importEl.addEventListener('foldlens-import', (e) => {
+  showProject(withDataset(emptyProject(project.name), (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset));
+  autosave.schedule(project);
+});
+importEl.addEventListener('foldlens-project-open', (e) => {
+  showProject((e as CustomEvent<{ project: FoldlensProject }>).detail.project);
+  autosave.schedule(project);
+});
+$<HTMLButtonElement>('#back-to-sample').addEventListener('click', async () => {
+  await store.clear();
+  project = emptyProject('Field data');
+  showSample();
+});
+table.addEventListener('foldlens-row-select', (e) => {
+  const s = stations[(e as CustomEvent<{ index: number }>).detail.index];
+  if (!s) return;
+  inspect(s);
+  if (s.lon !== undefined && s.lat !== undefined) map.flyTo({ center: [s.lon, s.lat], zoom: Math.max(map.getZoom(), 15) });
+});
+table.addEventListener('foldlens-row-edit', (e) => {
+  const dataset = (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset;
+  project = withDataset(project, dataset);
+  importEl.current = reportOf(dataset);
+  autosave.schedule(project);
+});
+table.addEventListener('foldlens-row-fixed', (e) => {
+  showStations([...(e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset.stations], $<HTMLElement>('#dataset-label').textContent ?? '');
+});
+foldlens.addEventListener('stationclick', (e) => (table.selectedIndex = (e as CustomEvent<StationEventDetail>).detail.index));
+foldlens.addEventListener('stationhover', (e) => (table.highlight = (e as CustomEvent<StationEventDetail>).detail.index));
+addEventListener('pagehide', () => void autosave.flush());
+
+map.on('load', async () => {
+  const saved = await store.load().catch(() => null);
+  if (saved && saved.project.datasets.length > 0) showProject(saved.project);
+  else showSample();
   setDomains(domains);
-  $<HTMLElement>('#dataset-label').textContent = `${truth.district} — synthetic demo data, ${stations.length} rows`;
   map.once('idle', () => {
     document.body.setAttribute('data-map-ready', 'true');
     saveForOffline();
