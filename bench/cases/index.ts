@@ -6,5 +6,6 @@ import { kambCase } from './kamb';
 import { exponentialCase, exponentialCoarseCase } from './exponential';
 import { girdleCase } from './girdle';
 import { profileCase } from './profile';
+import { localAxisFieldCase } from './localAxisField';
 
-export const benchCases: readonly BenchCase[] = [kambCase, exponentialCoarseCase, exponentialCase, girdleCase, profileCase];
+export const benchCases: readonly BenchCase[] = [kambCase, exponentialCoarseCase, exponentialCase, girdleCase, profileCase, localAxisFieldCase];

@@ -4,6 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { loadEpsgFromIndex } from '../io/epsgNode';
 import { UsageError } from './args';
 import { ANALYZE_HELP, runAnalyze } from './analyze';
+import { CHECK_HELP, runCheck } from './check';
 import { CONVERT_HELP, runConvert } from './convert';
 import { PROFILE_HELP, runProfile } from './profile';
 import type { CliIo } from './input';
@@ -25,6 +26,7 @@ Commands:
   convert <file.csv> --to <notation>   write the table back with normalised attitudes added
   analyze <file.csv|file.geojson>      fold axis, girdle and fabric of the planes (and lines)
   profile <file.csv> --axis <t/p>      down-plunge profile of stations and linework (CSV, JSON, SVG)
+  check <file.csv>                     consistency report: lines vs axis, poles vs girdle, map pattern, axis field
 
 Run foldlens <command> --help for the options of a command.
 Exit codes: 0 all went well; 1 some rows could not be read; 2 usage or file error.
@@ -45,6 +47,8 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         return await runAnalyze(rest, io);
       case 'profile':
         return await runProfile(rest, io);
+      case 'check':
+        return await runCheck(rest, io);
       case undefined:
       case '--help':
       case '-h':
@@ -52,6 +56,7 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
         if (command === 'help' && rest[0] === 'convert') io.stdout.write(CONVERT_HELP);
         else if (command === 'help' && rest[0] === 'analyze') io.stdout.write(ANALYZE_HELP);
         else if (command === 'help' && rest[0] === 'profile') io.stdout.write(PROFILE_HELP);
+        else if (command === 'help' && rest[0] === 'check') io.stdout.write(CHECK_HELP);
         else (command === undefined ? io.stderr : io.stdout).write(MAIN_HELP);
         return command === undefined ? 2 : 0;
       default:

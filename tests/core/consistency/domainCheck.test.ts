@@ -1,0 +1,100 @@
+import { describe, expect, it } from 'vitest';
+import { checkDomain, type DomainPlane } from '../../../src/core/consistency/domainCheck';
+import { analyzeFold } from '../../../src/core/foldAnalysis';
+import { angleBetweenLines } from '../../../src/core/geometry';
+import { comb3, contactTraces, foldStations, ned, planeOfNormal, profileBasis, unit3, type SynthStation } from './synthetic';
+import { mulberry32 } from '../../helpers/prng';
+
+const AXIS = { trend: 60, plunge: 20 };
+const BOX = [-2000, -1500, 2000, 1500] as const;
+const terrain = (x: number, y: number): number => 800 + 90 * Math.cos((2 * Math.PI * x) / 1100) + 40 * Math.sin((2 * Math.PI * y) / 1700) + 0.02 * y;
+
+function domainInput(stations: readonly SynthStation[]) {
+  return {
+    planes: stations.filter((s) => s.plane).map((s): DomainPlane => ({ ...s.plane!, id: s.id, x: s.x, y: s.y })),
+    lines: stations.filter((s) => s.line).map((s) => ({ ...s.line!, id: s.id })),
+  };
+}
+
+const surfaces = [450, 650, 850, 1050].map((level) => ({ name: `contact ${level}`, pieces: contactTraces({ axis: AXIS, amplitude: 150, wavelength: 1000, level, box: BOX, cell: 40, terrain }) }));
+
+describe('checkDomain', () => {
+  it('checkDomain(one cylindrical domain with 12 bad bedding readings and 3 bad hinges among 300 and 40) flags exactly the planted readings, reads the fold as cylindrical, and agrees with the map pattern', () => {
+    const stations = foldStations({ seed: 31, n: 300, hinges: 40, badPlanes: 12, badLines: 3, box: BOX, fold: () => ({ axis: AXIS, swing: 50, wavelength: 1000, domain: 'a' }), sigma: 2, lineSigma: 3 });
+    const check = checkDomain({ id: 'a', name: 'Domain A', ...domainInput(stations), surfaces }, { bootstrap: 200, searchAxis: false });
+    const bad = (kind: string): string[] => stations.filter((s) => s.bad && s.kind === kind).map((s) => s.id);
+    const flag = (code: string) => check.flags.find((f) => f.code === code);
+    expect(flag('planes-off-girdle')!.ids).toEqual(bad('bedding'));
+    expect(flag('lines-off-axis')!.ids).toEqual(bad('hinge'));
+    expect(flag('not-cylindrical')).toBeUndefined();
+    expect(flag('map-pattern-prefers-other-axis')).toBeUndefined();
+    expect(check.girdle.cylindricityWithoutOutliers!.shape).toBe('cylindrical');
+    expect(angleBetweenLines(check.girdle.axis!, AXIS)).toBeLessThan(1);
+    expect(check.mapPattern!.coherence!.nearBest).toBe(true);
+    expect(check.mapPattern!.search).toBeNull();
+    // The same numbers as the fold analysis itself.
+    const fold = analyzeFold({ planes: check.girdle.residuals.map((r) => r.plane), lines: check.lines!.lines.map((l) => l.line) }, { bootstrap: 200 });
+    expect(check.axis).toEqual(fold.axis);
+    expect(check.cone95).toBe(fold.cone95);
+  });
+
+  it('checkDomain(cylindrical domain) finds the map-only axis within 0.5° of the planted one, and raises no map-axis flag', () => {
+    const stations = foldStations({ seed: 32, n: 200, hinges: 0, box: BOX, fold: () => ({ axis: AXIS, swing: 50, wavelength: 1000, domain: 'a' }) });
+    const check = checkDomain({ id: 'a', name: 'A', ...domainInput(stations), surfaces }, { bootstrap: 100, searchAngle: 15 });
+    expect(angleBetweenLines(check.mapPattern!.search!.axis!, AXIS)).toBeLessThan(0.5);
+    expect(check.flags.map((f) => f.code)).not.toContain('map-axis-differs');
+    expect(check.mapPattern!.predictions!.comparisons.length).toBeGreaterThan(0);
+  });
+
+  it('checkDomain(domain, {convergence}) with positions on a grid turned by the convergence gives the same map-pattern numbers as true-north positions', () => {
+    // A point at true azimuth θ lies at grid azimuth θ - γ (io/localFrame.ts: true = grid + γ).
+    const gamma = 2.5;
+    const g = (gamma * Math.PI) / 180;
+    const toGrid = (xyz: Float64Array): Float64Array => {
+      const out = new Float64Array(xyz.length);
+      for (let i = 0; i < xyz.length; i += 3) {
+        out[i] = xyz[i] * Math.cos(g) - xyz[i + 1] * Math.sin(g);
+        out[i + 1] = xyz[i] * Math.sin(g) + xyz[i + 1] * Math.cos(g);
+        out[i + 2] = xyz[i + 2];
+      }
+      return out;
+    };
+    const stations = foldStations({ seed: 33, n: 150, hinges: 0, box: BOX, fold: () => ({ axis: AXIS, swing: 50, wavelength: 1000, domain: 'a' }) });
+    const input = domainInput(stations);
+    const trueNorth = checkDomain({ id: 'a', name: 'A', ...input, surfaces }, { bootstrap: 0, searchAxis: false });
+    const gridPlanes = input.planes.map((p) => {
+      const [x, y] = toGrid(new Float64Array([p.x!, p.y!, 0]));
+      return { ...p, x, y };
+    });
+    const grid = checkDomain(
+      { id: 'a', name: 'A', planes: gridPlanes, lines: input.lines, surfaces: surfaces.map((s) => ({ ...s, pieces: s.pieces.map(toGrid) })), convergence: gamma },
+      { bootstrap: 0, searchAxis: false },
+    );
+    expect(grid.mapPattern!.coherence!.scatter!).toBeCloseTo(trueNorth.mapPattern!.coherence!.scatter!, 9);
+    expect(grid.mapPattern!.predictions!.medianAngle!).toBeCloseTo(trueNorth.mapPattern!.predictions!.medianAngle!, 9);
+  });
+
+  it('checkDomain(a conical fold) flags it as not cylindrical and flags no single plane', () => {
+    // Poles on the small circle 70° from the cone axis: every pole lies 20° off the best girdle
+    // (derived, girdleResiduals.ts), so the fold is not cylindrical while no reading stands out.
+    const c = ned(80, 15);
+    const { up, right } = profileBasis(c);
+    const rnd = mulberry32(5);
+    const planes: DomainPlane[] = Array.from({ length: 120 }, (_, i) => {
+      const phi = 2 * Math.PI * rnd();
+      return { ...planeOfNormal(unit3(comb3(c, Math.sin(Math.PI / 9), comb3(up, Math.cos(phi), right, Math.sin(phi)), Math.cos(Math.PI / 9)))), id: `C${i}` };
+    });
+    const check = checkDomain({ id: 'cone', name: 'Conical', planes, lines: [] }, { bootstrap: 0 });
+    expect(check.flags.map((f) => f.code)).toEqual(['not-cylindrical']);
+    expect(check.girdle.cylindricity!.misfit).toBeGreaterThan(15);
+    expect(check.mapPattern).toBeNull();
+  });
+
+  it('checkDomain says why when there is no axis, and names a bad convergence', () => {
+    const check = checkDomain({ id: 'p', name: 'Parallel', planes: [{ dipDirection: 10, dip: 20 }, { dipDirection: 10, dip: 20 }, { dipDirection: 10, dip: 20 }], lines: [{ trend: 5, plunge: 5 }] }, { bootstrap: 0 });
+    expect(check.axis).toBeNull();
+    expect(check.flags[0].code).toBe('axis-undefined');
+    expect(check.lines).toBeNull();
+    expect(() => checkDomain({ id: 'x', name: 'X', planes: [], lines: [], convergence: Number.NaN })).toThrow(/convergence NaN/);
+  });
+});
