@@ -18,6 +18,11 @@ export interface BenchBudget {
   readonly maxMedianMs?: number;
   /** Smallest acceptable speed-up: baseline median / case median. */
   readonly minRatio?: number;
+  /**
+   * Largest acceptable slowdown: case median / baseline median (the inverse of the ratio), for a
+   * case that does more work than its baseline and may only cost so many times as much.
+   */
+  readonly maxSlowdown?: number;
 }
 
 /** Something timed: a name and a function. Warm-up and repetition counts override the harness defaults. */
@@ -63,6 +68,28 @@ export interface BenchResult {
   readonly problems: string[];
 }
 
+const REPORTED_NS = Symbol('reported time');
+
+/** What a run returns when it timed itself: its time and its result. See {@link reportedTime}. */
+export interface ReportedRun {
+  readonly [REPORTED_NS]: number;
+  readonly result: unknown;
+}
+
+/**
+ * Wraps a run's result with the time the run measured itself, which the harness then takes in
+ * place of its own clock. For work timed elsewhere (inside a browser page, in another process),
+ * where the harness clock would time only the hand-over.
+ * @example run: () => reportedTime(samplesNs.shift()!, 'from the page')
+ */
+export function reportedTime(ns: number, result?: unknown): ReportedRun {
+  return { [REPORTED_NS]: ns, result };
+}
+
+function isReported(value: unknown): value is ReportedRun {
+  return typeof value === 'object' && value !== null && REPORTED_NS in value;
+}
+
 /** Harness settings. */
 export interface HarnessOptions {
   /** Default warm-up runs per case (untimed). Default 3. */
@@ -80,11 +107,13 @@ export interface HarnessOptions {
 const NS_PER: Record<TimeUnit, number> = { ns: 1, us: 1e3, ms: 1e6, s: 1e9 };
 
 /**
- * Median of a non-empty list (mean of the middle two for an even count).
+ * Median of a non-empty list (mean of the middle two for an even count); NaN when any value is
+ * NaN (a missing measurement), which sorting would otherwise put anywhere.
  * @example median([5, 1, 3]) // 3
  */
 export function median(values: readonly number[]): number {
   if (values.length === 0) throw new RangeError('median of no values');
+  if (values.some(Number.isNaN)) return NaN;
   const s = [...values].sort((a, b) => a - b);
   const mid = s.length >> 1;
   return s.length % 2 === 1 ? s[mid] : (s[mid - 1] + s[mid]) / 2;
@@ -92,7 +121,7 @@ export function median(values: readonly number[]): number {
 
 /**
  * Runs `warmups` untimed and `repetitions` timed calls; returns the timings in nanoseconds and
- * the last result.
+ * the last result. A run that returns {@link reportedTime} is timed by what it reports.
  * @example timeRuns(() => 1 + 1, 1, 5, process.hrtime.bigint).samplesNs.length // 5
  */
 export function timeRuns(
@@ -104,12 +133,15 @@ export function timeRuns(
   if (!(Number.isInteger(repetitions) && repetitions >= 1)) throw new RangeError(`repetitions ${repetitions}: expected a whole number from 1`);
   if (!(Number.isInteger(warmups) && warmups >= 0)) throw new RangeError(`warmups ${warmups}: expected a whole number from 0`);
   let last: unknown;
-  for (let i = 0; i < warmups; i++) last = run();
+  const unwrap = (value: unknown): unknown => (isReported(value) ? value.result : value);
+  for (let i = 0; i < warmups; i++) last = unwrap(run());
   const samplesNs: number[] = [];
   for (let i = 0; i < repetitions; i++) {
     const start = clock();
-    last = run();
-    samplesNs.push(Number(clock() - start));
+    const value = run();
+    const elapsed = Number(clock() - start);
+    samplesNs.push(isReported(value) ? value[REPORTED_NS] : elapsed);
+    last = unwrap(value);
   }
   return { samplesNs, last };
 }
@@ -126,6 +158,13 @@ export function budgetProblems(budget: BenchBudget | undefined, medianMs: number
   if (budget?.minRatio !== undefined && !(ratio !== null && ratio >= budget.minRatio)) {
     problems.push(`speed-up ${ratio === null ? 'unknown' : `${round(ratio)}x`} is under the budget of ${budget.minRatio}x`);
   }
+  if (budget?.maxSlowdown !== undefined) {
+    // ratio = baseline / case, so the slowdown case / baseline is its inverse (0 for a case timed at zero).
+    const slowdown = ratio === null ? null : 1 / ratio;
+    if (!(slowdown !== null && slowdown <= budget.maxSlowdown)) {
+      problems.push(`slowdown ${slowdown === null ? 'unknown' : `${round(slowdown)}x`} (case / baseline) is over the budget of ${budget.maxSlowdown}x`);
+    }
+  }
   return problems;
 }
 
@@ -136,6 +175,7 @@ export function budgetProblems(budget: BenchBudget | undefined, medianMs: number
 export function runCase(c: BenchCase, options: HarnessOptions = {}): BenchResult {
   if (!(c.unit in NS_PER)) throw new RangeError(`case "${c.name}" has unit "${String(c.unit)}"; expected one of ${Object.keys(NS_PER).join(', ')}`);
   if (c.budget?.minRatio !== undefined && !c.baseline) throw new RangeError(`case "${c.name}" has a minRatio budget but no baseline`);
+  if (c.budget?.maxSlowdown !== undefined && !c.baseline) throw new RangeError(`case "${c.name}" has a maxSlowdown budget but no baseline`);
   const clock = options.clock ?? process.hrtime.bigint;
   const warmups = options.warmups ?? 3;
   const repetitions = options.repetitions ?? 10;
@@ -150,7 +190,8 @@ export function runCase(c: BenchCase, options: HarnessOptions = {}): BenchResult
     baselineMedianNs = median(bt.samplesNs);
     baselineLast = bt.last;
   }
-  const ratio = baselineMedianNs === null ? null : medianNs > 0 ? baselineMedianNs / medianNs : Infinity;
+  // A case timed at zero is infinitely faster; one with no time (NaN reported) has no ratio and fails any ratio budget.
+  const ratio = baselineMedianNs === null ? null : medianNs > 0 ? baselineMedianNs / medianNs : medianNs === 0 ? Infinity : NaN;
   const problems = budgetProblems(c.budget, medianNs / NS_PER.ms, ratio);
   const disagreement = c.check?.(timed.last, baselineLast);
   if (disagreement) problems.push(`result check: ${disagreement}`);
@@ -195,7 +236,7 @@ export function formatTable(results: readonly BenchResult[]): string {
     `${round(r.median)} ${r.unit}`,
     r.baseline ?? '-',
     r.baselineMedian === null ? '-' : `${round(r.baselineMedian)} ${r.unit}`,
-    r.ratio === null ? '-' : `${round(r.ratio)}x`,
+    formatRatio(r.ratio),
     describeBudget(r.budget),
     r.pass ? 'yes' : `NO: ${r.problems.join('; ')}`,
   ]);
@@ -263,7 +304,14 @@ function describeBudget(budget: BenchBudget | null): string {
   const parts: string[] = [];
   if (budget.maxMedianMs !== undefined) parts.push(`<= ${budget.maxMedianMs} ms`);
   if (budget.minRatio !== undefined) parts.push(`>= ${budget.minRatio}x`);
+  if (budget.maxSlowdown !== undefined) parts.push(`<= ${budget.maxSlowdown}x slower`);
   return parts.join(', ') || '-';
+}
+
+/** The speed-up, and for a case slower than its baseline also how many times slower. */
+function formatRatio(ratio: number | null): string {
+  if (ratio === null) return '-';
+  return ratio < 1 && ratio > 0 ? `${round(ratio)}x (${round(1 / ratio)}x slower)` : `${round(ratio)}x`;
 }
 
 function round(x: number): string {

@@ -8,6 +8,7 @@ import {
   formatTable,
   median,
   parseBenchArgs,
+  reportedTime,
   resultsJson,
   runCase,
   runCases,
@@ -38,6 +39,8 @@ describe('median', () => {
     { values: [5, 1, 3], expected: 3 },
     { values: [4, 1, 3, 2], expected: 2.5 },
     { values: [7], expected: 7 },
+    // A missing measurement (NaN) makes the median unknown, not whatever sorting leaves in the middle.
+    { values: [1, NaN, 3], expected: NaN },
   ];
   for (const { values, expected } of rows) {
     it(`median([${values}]) is ${expected}`, () => expect(median(values)).toBe(expected));
@@ -114,6 +117,75 @@ describe('runCase', () => {
     const { clock, advance } = fakeClock();
     runCase({ name: 's', unit: 'ms', setup: () => calls.push('setup'), run: () => (advance(1), calls.push('run')) }, { clock, warmups: 1, repetitions: 2 });
     expect(calls).toEqual(['setup', 'run', 'run', 'run']);
+  });
+});
+
+describe('reportedTime and the maxSlowdown budget', () => {
+  it('runCase takes the times its runs report with reportedTime(ns, result) instead of its clock, and checks the unwrapped results', () => {
+    const { clock, advance } = fakeClock();
+    const reported = [9e6, 1e6, 3e6, 2e6]; // first one is the warm-up
+    let i = 0;
+    const seen: unknown[] = [];
+    const r = runCase(
+      {
+        name: 'timed in a page',
+        unit: 'ms',
+        // The clock sees 100 ms per run (the hand-over); the runs report 1, 3 and 2 ms.
+        run: () => (advance(100e6), reportedTime(reported[i], `result ${i++}`)),
+        warmups: 1,
+        repetitions: 3,
+        baseline: { name: 'also in a page', run: () => (advance(100e6), reportedTime(8e6, 'b')), warmups: 0, repetitions: 2 },
+        check: (a, b) => (seen.push(a, b), undefined),
+      },
+      { clock },
+    );
+    expect([r.median, r.baselineMedian, r.ratio]).toEqual([2, 8, 4]);
+    expect(seen).toEqual(['result 3', 'b']);
+  });
+
+  it('runCase judges maxSlowdown as case median / baseline median, the inverse of the ratio', () => {
+    const { clock, advance } = fakeClock();
+    // Case 5 ms, baseline 2 ms: 2.5 times slower.
+    const make = (maxSlowdown: number): BenchCase => ({
+      name: 'symbols',
+      unit: 'ms',
+      run: () => advance(5e6),
+      baseline: { name: 'circles', run: () => advance(2e6) },
+      budget: { maxSlowdown },
+    });
+    const ok = runCase(make(3), { clock, warmups: 0, repetitions: 1 });
+    expect([ok.ratio, ok.pass]).toEqual([0.4, true]);
+    const over = runCase(make(2), { clock, warmups: 0, repetitions: 1 });
+    expect(over.pass).toBe(false);
+    expect(over.problems).toEqual(['slowdown 2.50x (case / baseline) is over the budget of 2x']);
+    expect(() => runCase({ name: 'x', unit: 'ms', run: () => 0, budget: { maxSlowdown: 3 } })).toThrow(/maxSlowdown budget but no baseline/);
+  });
+
+  it('runCase fails the ratio budgets of a case whose runs report no time (NaN), rather than calling it infinitely fast', () => {
+    const { clock } = fakeClock();
+    const r = runCase(
+      { name: 'lost', unit: 'ms', run: () => reportedTime(NaN), baseline: { name: 'b', run: () => reportedTime(2e6) }, budget: { maxSlowdown: 3, minRatio: 0.1 } },
+      { clock, warmups: 0, repetitions: 2 },
+    );
+    expect(r.ratio).toBeNaN();
+    expect(r.pass).toBe(false);
+    expect(r.problems).toEqual(['speed-up NaNx is under the budget of 0.1x', 'slowdown NaNx (case / baseline) is over the budget of 3x']);
+  });
+
+  it('budgetProblems({maxSlowdown}, medianMs, ratio) fails an unknown ratio and passes a case timed at zero', () => {
+    expect(budgetProblems({ maxSlowdown: 3 }, 1, null)).toEqual(['slowdown unknown (case / baseline) is over the budget of 3x']);
+    expect(budgetProblems({ maxSlowdown: 3 }, 0, Infinity)).toEqual([]);
+    expect(budgetProblems({ maxSlowdown: 3 }, 1, 1 / 3)).toEqual([]);
+  });
+
+  it('formatTable shows a slower case as "0.400x (2.50x slower)" and its budget as "<= 3x slower"', () => {
+    const { clock, advance } = fakeClock();
+    const [r] = runCases(
+      [{ name: 'symbols', unit: 'ms', run: () => advance(5e6), baseline: { name: 'circles', run: () => advance(2e6) }, budget: { maxSlowdown: 3 } }],
+      { clock, warmups: 0, repetitions: 1 },
+    );
+    const row = formatTable([r]).split('\n')[2];
+    expect(row).toMatch(/0\.400x \(2\.50x slower\)\s+<= 3x slower\s+yes$/);
   });
 });
 
