@@ -16,7 +16,6 @@ try {
   const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
   await page.goto(`http://127.0.0.1:${address.port}/`);
   await page.waitForSelector('body[data-map-ready="true"]', { timeout: 60_000 });
-  await page.evaluate(() => localStorage.clear());
 
   // Overview: select the west domain with the lasso, as a user would.
   await page.locator('foldlens-toolbar').getByRole('button', { name: /Lasso/ }).click();

@@ -10,7 +10,13 @@ import { foldInputFromStations } from '../core/foldInput';
 import { lineToVector, poleOf } from '../core/vectors';
 import { projectLine } from '../core/netProjection';
 import { KIND_LABELS } from '../map/symbolCatalog';
-import { buildStyle, bounds, truth } from '../../sample-maps/korvane/index';
+import { buildStyle, bounds, truth, contacts, faults, demUrl } from '../../sample-maps/korvane/index';
+import '../components/foldlens-profile';
+import type { FoldlensProfile } from '../components/foldlens-profile';
+import { buildProfileData } from '../map/profileData';
+import { readDem } from '../io/dem';
+import type { Dem } from '../io/demSampler';
+import type { Line } from '../core/types';
 import { loadSampleStations } from './sampleStations';
 import { setUpOffline } from './offline';
 import '../components/foldlens-import';
@@ -27,7 +33,6 @@ import '../components/foldlens-domains';
 import { simplify, polygon as turfPolygon } from '@turf/turf';
 import { DomainLayer, type DomainRingDetail } from '../map/domainLayer';
 import { newDomainId, nextDomainName, type Domain } from '../core/domain';
-import { loadDomains, saveDomains } from './domainStore';
 
 configureMapLibre();
 const saveForOffline = setUpOffline(document.querySelector('#offline-status') as HTMLElement, () => [getWorkerUrl(), analysis.workerScriptUrl ?? '']);
@@ -53,7 +58,7 @@ map.addControl(new ScaleControl({ unit: 'metric' }), 'bottom-left');
 
 const foldlens = attachFoldlens(map);
 const domainLayer = new DomainLayer(map);
-let domains: Domain[] = loadDomains();
+let domains: Domain[] = [];
 const analysis = new AnalysisClient();
 let stations: Station[] = [];
 let contourMethod: 'kamb' | 'exponential' | 'off' = 'kamb';
@@ -171,11 +176,15 @@ toolbar.addEventListener('foldlens-select-kind', (e) => foldlens.selectKinds([(e
 
 // ---- Structural domains -------------------------------------------------------------------
 
-function setDomains(next: Domain[]): void {
+/** Shows the domains and saves them with the project; resolves when the save has committed. */
+function setDomains(next: Domain[], save = true): Promise<void> {
   domains = next;
   domainLayer.setDomains(domains);
   domainsPanel.domains = domains;
-  saveDomains(domains);
+  if (!save) return Promise.resolve();
+  project = { ...project, domains: domains as unknown as FoldlensProject['domains'] };
+  autosave.schedule(project);
+  return autosave.flush();
 }
 
 /** A lasso ring has a vertex every few pixels; keep its shape with far fewer vertices for editing. */
@@ -203,7 +212,7 @@ domainsPanel.addEventListener('foldlens-domain-save', async (e) => {
   if (!shape) return;
   const name = (e as CustomEvent<{ name: string }>).detail.name || nextDomainName(domains);
   const domain = await domainFromRing(newDomainId(), name, simplifiedRing(shape));
-  setDomains([...domains, domain]);
+  await setDomains([...domains, domain]);
   document.body.dataset.domainsSaved = String(domains.length);
 });
 domainsPanel.addEventListener('foldlens-domain-show', (e) => {
@@ -285,17 +294,19 @@ function showSample(): void {
 }
 
 importEl.addEventListener('foldlens-import', (e) => {
-  showProject(withDataset(emptyProject(project.name), (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset));
+  // A new file replaces the data; the domains (map areas) stay.
+  showProject(withDataset({ ...emptyProject(project.name), domains: project.domains }, (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset));
   autosave.schedule(project);
 });
 importEl.addEventListener('foldlens-project-open', (e) => {
   showProject((e as CustomEvent<{ project: FoldlensProject }>).detail.project);
-  autosave.schedule(project);
+  void setDomains(project.domains as unknown as Domain[]);
 });
 $<HTMLButtonElement>('#back-to-sample').addEventListener('click', async () => {
   await store.clear();
   project = emptyProject('Field data');
   showSample();
+  void setDomains([], false);
 });
 table.addEventListener('foldlens-row-select', (e) => {
   const s = stations[(e as CustomEvent<{ index: number }>).detail.index];
@@ -320,7 +331,9 @@ map.on('load', async () => {
   const saved = await store.load().catch(() => null);
   if (saved && saved.project.datasets.length > 0) showProject(saved.project);
   else showSample();
-  setDomains(domains);
+  if (saved) project = saved.project;
+  // Domains saved with the project (opaque in the file format; written only by this viewer).
+  void setDomains((saved?.project.domains ?? []) as unknown as Domain[], false);
   map.once('idle', () => {
     document.body.setAttribute('data-map-ready', 'true');
     saveForOffline();
@@ -328,3 +341,37 @@ map.on('load', async () => {
 });
 
 Object.assign(window, { foldlensDemo: { map, foldlens, get stations() { return stations; } } });
+
+// ---- Down-plunge profile of the selection or a domain --------------------------------------------
+
+const profileBox = $<HTMLDialogElement>('#profile-box');
+const profile = $<FoldlensProfile>('#profile');
+const profileButton = $<HTMLButtonElement>('#profile-button');
+$<HTMLButtonElement>('#profile-close').addEventListener('click', () => profileBox.close());
+let demLoad: Promise<Dem> | null = null;
+const sampleDem = (): Promise<Dem> => (demLoad ??= fetch(demUrl).then((r) => r.arrayBuffer()).then((b) => readDem(b, { source: 'dem.tif' })));
+
+async function openProfile(ring: ReadonlyArray<readonly [number, number]>, axis: Line, label: string): Promise<void> {
+  try {
+    profile.data = buildProfileData({ stations, contacts, faults, dem: await sampleDem(), axis, ring, label });
+    profile.label = label;
+    profileBox.show(); // not modal: the map stays live for hover linking
+  } catch (e) {
+    hint.hidden = false;
+    hint.textContent = `The profile could not be drawn: ${e instanceof Error ? e.message : String(e)}`;
+  }
+}
+profileButton.addEventListener('click', () => {
+  const axis = net.analysis?.axis;
+  const ring = foldlens.shape;
+  if (axis && ring) void openProfile(ring, axis, net.selectionLabel);
+});
+foldlens.addEventListener('selectionchange', (e) => {
+  profileButton.disabled = (e as CustomEvent<SelectionChangeDetail>).detail.shape === null;
+});
+foldlens.addEventListener('stationhover', (e) => (profile.highlight = (e as CustomEvent<StationEventDetail>).detail.index));
+profile.addEventListener('foldlens-profile-hover', (e) => foldlens.overlay.setHighlight((e as CustomEvent<{ index: number }>).detail.index));
+profile.addEventListener('foldlens-profile-pick', (e) => {
+  const i = (e as CustomEvent<{ index: number }>).detail.index;
+  if (i >= 0) inspect(stations[i]);
+});

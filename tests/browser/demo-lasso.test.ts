@@ -78,7 +78,6 @@ describe('lasso to net panel on the sample map', () => {
   }
 
   it('the lassoed area saves as a named domain and is still there, with its axis, after a reload', async () => {
-    await page.evaluate(() => localStorage.clear());
     const before = await page.evaluate(() => document.body.dataset.analysisReady);
     await dragLasso(page, await domainPath(page, truth.domains[0].polygon));
     await waitForAnalysis(page, before);
