@@ -1,14 +1,14 @@
 import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS, foldInputFromStations } from '../core/foldInput';
-import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import { analyzeFold, type FoldAnalysis } from '../core/foldAnalysis';
 import { formatLine, formatPlane } from '../core/notation';
 import { isLineKind, isPlaneKind, LINE_KINDS, PLANE_KINDS, type Line, type MeasurementKind, type PlaneMeasurement } from '../core/types';
 import { isUsable, type Station } from '../core/station';
 import { normalizeKind } from '../io/kinds';
-import { AreaError, readPolygons, selectWithin } from '../io/within';
+import { selectWithin } from '../io/within';
 import { formatOptions, parseArgs, UsageError, type OptionSpec } from './args';
 import { reportRows } from './convert';
-import { INPUT_OPTIONS, loadInput, readText, type CliIo } from './input';
+import { INPUT_OPTIONS, loadInput, type CliIo } from './input';
+import { readArea } from './optionFiles';
 
 /**
  * `foldlens analyze <file.csv|file.geojson> [--within area.geojson] [--json] [--bootstrap N] [--seed S]`
@@ -138,15 +138,6 @@ function kindList(text: string | undefined, option: string, accept: (k: string) 
   });
 }
 
-async function readArea(path: string, io: CliIo): Promise<Feature<Polygon | MultiPolygon>[]> {
-  const text = await readText(path, io);
-  try {
-    return readPolygons(text);
-  } catch (e) {
-    if (e instanceof AreaError) throw new UsageError(`--within ${path}: ${e.message}`);
-    throw e;
-  }
-}
 
 function countKinds(stations: readonly Station[]): Record<string, number> {
   const out: Record<string, number> = {};

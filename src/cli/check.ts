@@ -8,20 +8,19 @@ import { consistencyReportHtml } from '../core/consistency/reportHtml';
 import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS, foldInputFromStations } from '../core/foldInput';
 import { formatLine } from '../core/notation';
 import { keptRuns } from '../core/profileLayout';
-import { isUsable, type Station } from '../core/station';
+import { isUsable } from '../core/station';
 import { isLineKind, isPlaneKind, LINE_KINDS, PLANE_KINDS, type MeasurementKind } from '../core/types';
 import { planeNormal } from '../core/vectors';
-import { CrsError, resolveCrs, toLonLat, type Crs } from '../io/crs';
+import { CrsError, toLonLat } from '../io/crs';
 import { parseIsoDate } from '../io/declination';
-import { DemError, readDem } from '../io/dem';
-import type { Dem } from '../io/demSampler';
-import { lineworkHeights, type DemInCrs } from '../io/elevations';
+import { lineworkHeights } from '../io/elevations';
 import { normalizeKind } from '../io/kinds';
 import { chooseLocalFrame, lonLatToLocal, type LocalFrame } from '../io/localFrame';
-import { LineworkError, readLinework, type LineworkFeature } from '../io/readLinework';
+import type { LineworkFeature } from '../io/readLinework';
 import { AreaError, readPolygons, selectWithin } from '../io/within';
 import { formatOptions, parseArgs, UsageError, type OptionSpec } from './args';
 import { reportRows } from './convert';
+import { loadDem, readLines } from './optionFiles';
 import { INPUT_OPTIONS, loadInput, readText, type CliIo } from './input';
 
 /**
@@ -321,43 +320,7 @@ async function readDomains(path: string, io: CliIo): Promise<{ id: string; name:
   });
 }
 
-async function readLines(path: string, io: CliIo): Promise<LineworkFeature[]> {
-  const text = await readText(path, io);
-  try {
-    return readLinework(text);
-  } catch (e) {
-    if (e instanceof LineworkError) throw new UsageError(`--lines ${path}: ${e.message}`);
-    throw e;
-  }
-}
 
-async function loadDem(path: string, crsText: string | undefined, io: CliIo): Promise<DemInCrs> {
-  let bytes: Uint8Array | string;
-  try {
-    bytes = await io.readFile(path);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new UsageError(`cannot read ${path}: ${code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
-  if (typeof bytes === 'string') throw new UsageError(`--dem ${path}: a GeoTIFF is binary; it was given as text`);
-  let dem: Dem;
-  try {
-    dem = await readDem(bytes, { source: path });
-  } catch (e) {
-    if (e instanceof DemError) throw new UsageError(`--dem ${e.message}`);
-    throw e;
-  }
-  const text = crsText ?? (dem.epsg !== undefined ? `EPSG:${dem.epsg}` : undefined);
-  if (text === undefined) throw new UsageError(`--dem ${path}: the file names no EPSG code for its CRS; give it with --dem-crs (e.g. --dem-crs EPSG:32633)`);
-  let crs: Crs;
-  try {
-    crs = await resolveCrs(text, io.epsg);
-  } catch (e) {
-    if (e instanceof CrsError) throw new UsageError(`${crsText !== undefined ? '--dem-crs' : `--dem ${path}`}: ${e.message}`);
-    throw e;
-  }
-  return { dem, crs };
-}
 
 function checkedDate(text: string): string {
   if (!parseIsoDate(text)) throw new UsageError(`--date ${text}: expected a date written YYYY-MM-DD`);

@@ -7,18 +7,16 @@ import { lineInProfile, planeTraceInProfile, type ProfileLineMark, type ProfileT
 import { keptRuns } from '../core/profileLayout';
 import { isUsable, type Station } from '../core/station';
 import type { Line } from '../core/types';
-import { CrsError, resolveCrs, type Crs } from '../io/crs';
+import { CrsError } from '../io/crs';
 import { parseIsoDate } from '../io/declination';
-import { DemError, readDem } from '../io/dem';
-import type { Dem } from '../io/demSampler';
-import { lineworkHeights, stationHeights, type DemInCrs, type HeightSource, type MissingHeight } from '../io/elevations';
+import { lineworkHeights, stationHeights, type HeightSource } from '../io/elevations';
 import { chooseLocalFrame, gridAxis, lonLatToLocal, type LocalFrame } from '../io/localFrame';
-import { LineworkError, readLinework, type LineworkFeature } from '../io/readLinework';
-import { AreaError, readPolygons, selectWithin } from '../io/within';
+import { selectWithin } from '../io/within';
 import { formatOptions, parseArgs, UsageError, type OptionSpec } from './args';
 import { reportRows } from './convert';
-import { INPUT_OPTIONS, loadInput, readText, type CliIo } from './input';
+import { INPUT_OPTIONS, loadInput, type CliIo } from './input';
 import { profileSvg, type DrawnLine, type DrawnStation } from './profileSvg';
+import { loadDem, readArea, readLines } from './optionFiles';
 
 /**
  * `foldlens profile <stations.csv> --axis TREND/PLUNGE [--lines lines.geojson] [--dem dem.tif]
@@ -306,53 +304,8 @@ function checkedDate(text: string): string {
   return text;
 }
 
-async function readArea(path: string, io: CliIo): Promise<Feature<Polygon | MultiPolygon>[]> {
-  const text = await readText(path, io);
-  try {
-    return readPolygons(text);
-  } catch (e) {
-    if (e instanceof AreaError) throw new UsageError(`--within ${path}: ${e.message}`);
-    throw e;
-  }
-}
 
-async function readLines(path: string, io: CliIo): Promise<LineworkFeature[]> {
-  const text = await readText(path, io);
-  try {
-    return readLinework(text);
-  } catch (e) {
-    if (e instanceof LineworkError) throw new UsageError(`--lines ${path}: ${e.message}`);
-    throw e;
-  }
-}
 
-async function loadDem(path: string, crsText: string | undefined, io: CliIo): Promise<DemInCrs> {
-  let bytes: Uint8Array | string;
-  try {
-    bytes = await io.readFile(path);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new UsageError(`cannot read ${path}: ${code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
-  if (typeof bytes === 'string') throw new UsageError(`--dem ${path}: a GeoTIFF is binary; it was given as text`);
-  let dem: Dem;
-  try {
-    dem = await readDem(bytes, { source: path });
-  } catch (e) {
-    if (e instanceof DemError) throw new UsageError(`--dem ${e.message}`);
-    throw e;
-  }
-  const text = crsText ?? (dem.epsg !== undefined ? `EPSG:${dem.epsg}` : undefined);
-  if (text === undefined) throw new UsageError(`--dem ${path}: the file names no EPSG code for its CRS; give it with --dem-crs (e.g. --dem-crs EPSG:32633)`);
-  let crs: Crs;
-  try {
-    crs = await resolveCrs(text, io.epsg);
-  } catch (e) {
-    if (e instanceof CrsError) throw new UsageError(`${crsText !== undefined ? '--dem-crs' : `--dem ${path}`}: ${e.message}`);
-    throw e;
-  }
-  return { dem, crs };
-}
 
 /** Which vertices (flat lon/lat pairs) lie inside the area (all, without one). */
 function vertexMask(lonLat: Float64Array, area: readonly Feature<Polygon | MultiPolygon>[] | undefined): boolean[] {
