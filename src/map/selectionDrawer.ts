@@ -70,10 +70,12 @@ export class SelectionDrawer extends EventTarget {
   /** Activates a tool (null returns the pointer to panning). */
   setTool(tool: SelectionToolName | null): void {
     if (this.active) this.cancel();
+    const wasPanning = this.tool === null;
     this.tool = tool;
     this.map.getCanvas().style.cursor = tool ? 'crosshair' : '';
     if (tool) {
-      this.dragPanWasOn = this.map.dragPan.isEnabled();
+      // Remember the host's pan setting only when leaving pan mode, not when switching tools.
+      if (wasPanning) this.dragPanWasOn = this.map.dragPan.isEnabled();
       this.map.dragPan.disable();
       this.map.doubleClickZoom.disable();
     } else {
@@ -181,7 +183,12 @@ export class SelectionDrawer extends EventTarget {
     }
     e.preventDefault();
     this.pointerId = e.pointerId;
-    this.map.getCanvasContainer().setPointerCapture?.(e.pointerId);
+    try {
+      // Keeps the gesture when a finger or pen strays off the map; not every pointer can be captured.
+      this.map.getCanvasContainer().setPointerCapture(e.pointerId);
+    } catch {
+      /* drawing continues without capture */
+    }
     this.start(this.tool, this.combineFor(e));
     this.screen = [p];
     this.ring = [this.lngLat(p)];

@@ -59,6 +59,35 @@ describe('Foldlens attached to an unrelated host map', () => {
     expect(selected).toEqual([0, 1, 2, 3]);
   });
 
+  for (const pointerType of ['touch', 'pen'] as const) {
+    it(`a lasso drawn with ${pointerType} pointer events selects the stations inside it`, async () => {
+      await page.evaluate(() => (window as unknown as HostWindow).foldlens.clearSelection());
+      const selected = await page.evaluate(async (type) => {
+        const w = window as unknown as HostWindow;
+        w.foldlens.setTool('lasso');
+        const el = w.map.getCanvasContainer();
+        const r = w.map.getContainer().getBoundingClientRect(); // the canvas container itself has no height
+        const cx = r.left + r.width / 2;
+        const cy = r.top + r.height / 2;
+        const fire = (kind: string, x: number, y: number) =>
+          el.dispatchEvent(new PointerEvent(kind, { pointerType: type, pointerId: 7, isPrimary: true, clientX: x, clientY: y, button: 0, buttons: kind === 'pointerup' ? 0 : 1, bubbles: true, cancelable: true }));
+        // A ring around the whole view, drawn in small steps as a finger or pen would.
+        const ring = [[-250, -250], [250, -250], [250, 250], [-250, 250], [-250, -250]];
+        fire('pointerdown', cx + ring[0][0], cy + ring[0][1]);
+        for (let k = 1; k < ring.length; k++) {
+          for (let s = 1; s <= 10; s++) {
+            const x = ring[k - 1][0] + ((ring[k][0] - ring[k - 1][0]) * s) / 10;
+            const y = ring[k - 1][1] + ((ring[k][1] - ring[k - 1][1]) * s) / 10;
+            fire('pointermove', cx + x, cy + y);
+          }
+        }
+        fire('pointerup', cx + ring[0][0], cy + ring[0][1]);
+        return Array.from(w.foldlens.selectedIndices());
+      }, pointerType);
+      expect(selected).toEqual([0, 1, 2, 3]);
+    });
+  }
+
   it('Foldlens puts itself back after the host swaps its style', async () => {
     await page.evaluate(async () => {
       const w = window as unknown as HostWindow;
