@@ -22,7 +22,7 @@
 import { capAngleDegrees, contourLevels, netGridNodes, readAxes, resolveDensityOptions } from './density';
 import type { DensityGrid, DensityOptions } from './density';
 import type { Line } from './types';
-import { bucketAxes, capChord, sumAllAxes, sumNearAxis } from './sphereBuckets';
+import { densityAtNodes } from './densityNodes';
 
 /** Options of the exponential estimate. */
 export interface ExponentialDensityOptions extends DensityOptions {
@@ -79,24 +79,11 @@ export function exponentialGrid(input: Float64Array | readonly Line[], options: 
   const n = vectors.length / 3;
   const { k, expected, sigma, countingAngle } = exponentialParameters(n);
   const nodes = netGridNodes(resolution, net);
-  const { directions: dirs, evaluated } = nodes;
-  const values = new Float64Array(nodes.width * nodes.height);
   const weight = (c: number): number => Math.exp(k * (c - 1));
-  // w < w_cut  <=>  |u·v| < 1 + ln(w_cut)/k.
+  // w < w_cut  <=>  |u·v| < 1 + ln(w_cut)/k. When the cut reaches past 90° every axis matters,
+  // so there is nothing to search for and all pairs are summed.
   const minCos = 1 + Math.log((tolerance * sigma) / n) / k;
-  if (strategy === 'all-pairs' || !(minCos > 0)) {
-    // The cut reaches past 90°: every axis matters, so there is nothing to search for.
-    for (let j = 0; j < values.length; j++) {
-      if (evaluated[j] === 0) continue;
-      values[j] = sumAllAxes(vectors, dirs[3 * j], dirs[3 * j + 1], dirs[3 * j + 2], 0, weight) / sigma;
-    }
-  } else {
-    const buckets = bucketAxes(vectors, capChord(minCos));
-    for (let j = 0; j < values.length; j++) {
-      if (evaluated[j] === 0) continue;
-      values[j] = sumNearAxis(buckets, dirs[3 * j], dirs[3 * j + 1], dirs[3 * j + 2], minCos, weight) / sigma;
-    }
-  }
+  const values = densityAtNodes(nodes, vectors, { allPairs: strategy === 'all-pairs' || !(minCos > 0), minCos, allPairsMinCos: 0 }, weight, sigma);
   return {
     method: 'exponential',
     net,

@@ -36,3 +36,4 @@ export * from './apparentDip';
 export * from './verticalSection';
 export * from './profileScatter';
 export * from './profileLayout';
+export * from './densityNodes';

@@ -15,7 +15,7 @@
 import { capAngleDegrees, contourLevels, netGridNodes, readAxes, resolveDensityOptions } from './density';
 import type { DensityGrid, DensityOptions } from './density';
 import type { Line } from './types';
-import { bucketAxes, capChord, sumAllAxes, sumNearAxis } from './sphereBuckets';
+import { densityAtNodes } from './densityNodes';
 
 /** Kamb counting parameters for n directions. */
 export interface KambParameters {
@@ -62,21 +62,7 @@ export function kambGrid(input: Float64Array | readonly Line[], options: Density
   const n = vectors.length / 3;
   const { expected, sigma, minCos, countingAngle } = kambParameters(n);
   const nodes = netGridNodes(resolution, net);
-  const { directions: dirs, evaluated } = nodes;
-  const values = new Float64Array(nodes.width * nodes.height);
-  const one = (): number => 1;
-  if (strategy === 'all-pairs') {
-    for (let j = 0; j < values.length; j++) {
-      if (evaluated[j] === 0) continue;
-      values[j] = sumAllAxes(vectors, dirs[3 * j], dirs[3 * j + 1], dirs[3 * j + 2], minCos, one) / sigma;
-    }
-  } else {
-    const buckets = bucketAxes(vectors, capChord(minCos));
-    for (let j = 0; j < values.length; j++) {
-      if (evaluated[j] === 0) continue;
-      values[j] = sumNearAxis(buckets, dirs[3 * j], dirs[3 * j + 1], dirs[3 * j + 2], minCos, one) / sigma;
-    }
-  }
+  const values = densityAtNodes(nodes, vectors, { allPairs: strategy === 'all-pairs', minCos, allPairsMinCos: minCos }, () => 1, sigma);
   return {
     method: 'kamb',
     net,
