@@ -1,3 +1,4 @@
+import { downloadBlob, svgToPng } from './exportFiles';
 import { LitElement, css, html, nothing, unsafeCSS, type PropertyValues } from 'lit';
 import { quadtree, select, type Quadtree } from 'd3';
 import type { DensityGrid } from '../core/density';
@@ -194,23 +195,9 @@ export class FoldlensNet extends LitElement {
    * @example const blob = await panel.toPng(2);
    */
   async toPng(scale = 2): Promise<Blob> {
-    const svgText = this.toSvg();
-    const url = URL.createObjectURL(new Blob([svgText], { type: 'image/svg+xml' }));
-    try {
-      const img = new Image();
-      img.src = url;
-      await img.decode();
-      const canvas = document.createElement('canvas');
-      canvas.width = Math.round(img.naturalWidth * scale);
-      canvas.height = Math.round(img.naturalHeight * scale);
-      const ctx = canvas.getContext('2d');
-      if (!ctx) throw new Error('PNG export: this browser gave no 2D canvas');
-      ctx.drawImage(img, 0, 0, canvas.width, canvas.height);
-      return await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('PNG export: the canvas could not be encoded'))), 'image/png'));
-    } finally {
-      URL.revokeObjectURL(url);
-    }
+    return svgToPng(this.toSvg(), scale);
   }
+
 
   /**
    * The numbers as CSV (see net/exportNumbers.ts).
@@ -645,11 +632,7 @@ export class FoldlensNet extends LitElement {
         : new Blob([kind === 'svg' ? this.toSvg(date) : kind === 'csv' ? this.toCsv(date) : this.toJson(date)], {
             type: kind === 'svg' ? 'image/svg+xml' : kind === 'csv' ? 'text/csv' : 'application/json',
           });
-    const a = document.createElement('a');
-    a.href = URL.createObjectURL(blob);
-    a.download = `foldlens-net-${date}.${kind}`;
-    a.click();
-    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    downloadBlob(blob, `foldlens-net-${date}.${kind}`);
   }
 }
 

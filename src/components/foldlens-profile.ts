@@ -1,3 +1,4 @@
+import { downloadBlob, svgToPng } from './exportFiles';
 import { LitElement, css, html, nothing, unsafeCSS, type PropertyValues } from 'lit';
 import { quadtree, select, zoom, zoomIdentity, zoomTransform, type Quadtree, type Selection, type ZoomBehavior, type D3ZoomEvent } from 'd3';
 import type { ProfileData } from '../map/profileData';
@@ -209,22 +210,9 @@ export class FoldlensProfile extends LitElement {
    * @example const blob = await panel.toPng(2);
    */
   async toPng(scale = 2): Promise<Blob> {
-    const url = URL.createObjectURL(new Blob([this.toSvg()], { type: 'image/svg+xml' }));
-    try {
-      const img = new Image();
-      img.src = url;
-      await img.decode();
-      const canvas = document.createElement('canvas');
-      canvas.width = Math.round(img.naturalWidth * scale);
-      canvas.height = Math.round(img.naturalHeight * scale);
-      const ctx = canvas.getContext('2d');
-      if (!ctx) throw new Error('PNG export: this browser gave no 2D canvas');
-      ctx.drawImage(img, 0, 0, canvas.width, canvas.height);
-      return await new Promise<Blob>((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('PNG export: the canvas could not be encoded'))), 'image/png'));
-    } finally {
-      URL.revokeObjectURL(url);
-    }
+    return svgToPng(this.toSvg(), scale);
   }
+
 
   /**
    * Back to the whole profile, unzoomed.
@@ -678,11 +666,7 @@ export class FoldlensProfile extends LitElement {
   private async download(kind: 'svg' | 'png'): Promise<void> {
     const date = new Date().toISOString().slice(0, 10);
     const blob = kind === 'png' ? await this.toPng() : new Blob([this.toSvg(date)], { type: 'image/svg+xml' });
-    const a = document.createElement('a');
-    a.href = URL.createObjectURL(blob);
-    a.download = `foldlens-profile-${date}.${kind}`;
-    a.click();
-    setTimeout(() => URL.revokeObjectURL(a.href), 1000);
+    downloadBlob(blob, `foldlens-profile-${date}.${kind}`);
   }
 }
 
