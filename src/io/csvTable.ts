@@ -203,7 +203,12 @@ function rejectBinaryText(text: string): void {
   }
 }
 
-function firstInvalidUtf8(bytes: Uint8Array): number {
+/**
+ * Offset of the first byte that makes `bytes` invalid UTF-8. With `final` false (a chunk of a
+ * longer stream), a character cut short at the end is not an error and the length is returned.
+ * @example firstInvalidUtf8(new Uint8Array([0x41, 0xff])) // 1
+ */
+export function firstInvalidUtf8(bytes: Uint8Array, final = true): number {
   // Bisection on "this prefix holds no invalid sequence" (decoding in stream mode leaves an
   // unfinished character at the end pending instead of failing, so the test is monotone).
   const validPrefix = (n: number): boolean => {
@@ -215,6 +220,7 @@ function firstInvalidUtf8(bytes: Uint8Array): number {
     }
   };
   if (validPrefix(bytes.length)) {
+    if (!final) return bytes.length;
     // Only the end is wrong: a character cut short. Point at its first byte.
     let at = bytes.length - 1;
     while (at > 0 && (bytes[at] & 0xc0) === 0x80) at--;

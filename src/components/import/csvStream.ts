@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import { CsvError, readCsv, type CsvOptions, type CsvRow } from '../../io/csvTable';
+import { CsvError, firstInvalidUtf8, readCsv, type CsvOptions, type CsvRow } from '../../io/csvTable';
 
 /**
  * Reading delimited text that arrives in pieces (a large file read in chunks in a worker) into
@@ -330,7 +330,7 @@ export class Utf8ChunkDecoder {
       const joined = new Uint8Array(this.tail.length + bytes.length);
       joined.set(this.tail);
       joined.set(bytes, this.tail.length);
-      const at = this.offset - this.tail.length + firstInvalidByte(joined, final);
+      const at = this.offset - this.tail.length + firstInvalidUtf8(joined, final);
       throw new CsvError('encoding', `the file is not valid UTF-8 (first bad byte at offset ${at}); save it as "CSV UTF-8" and try again`);
     }
     this.offset += bytes.length;
@@ -355,35 +355,3 @@ function unfinishedTail(before: Uint8Array, bytes: Uint8Array): Uint8Array {
   return new Uint8Array(0);
 }
 
-/** Offset of the first byte that makes `bytes` invalid UTF-8 (bisection on valid prefixes, as csvTable.ts). */
-function firstInvalidByte(bytes: Uint8Array, final: boolean): number {
-  const valid = (n: number): boolean => {
-    try {
-      new TextDecoder('utf-8', { fatal: true }).decode(bytes.subarray(0, n), { stream: true });
-      return true;
-    } catch {
-      return false;
-    }
-  };
-  if (valid(bytes.length)) {
-    if (!final) return bytes.length;
-    let at = bytes.length - 1;
-    while (at > 0 && (bytes[at] & 0xc0) === 0x80) at--;
-    return at;
-  }
-  let lo = 0;
-  let hi = bytes.length;
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (valid(mid)) lo = mid;
-    else hi = mid;
-  }
-  for (let j = lo - 1; j >= Math.max(0, lo - 3); j--) {
-    if ((bytes[j] & 0xc0) === 0xc0) {
-      const length = bytes[j] >= 0xf0 ? 4 : bytes[j] >= 0xe0 ? 3 : 2;
-      return j + length > lo ? j : lo;
-    }
-    if ((bytes[j] & 0xc0) !== 0x80) break;
-  }
-  return lo;
-}
