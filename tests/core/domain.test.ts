@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { area, centroid, polygon } from '@turf/turf';
+import { centroid, polygon } from '@turf/turf';
 import { compareDomains, newDomainId, nextDomainName, ringCentroid } from '../../src/core/domain';
 import type { FoldAnalysis } from '../../src/core/foldAnalysis';
 import { expectClose } from '../helpers/tolerance';
@@ -40,12 +40,11 @@ describe('domain names and ids', () => {
 describe('ringCentroid', () => {
   it('ringCentroid agrees with turf centroid of a convex quadrilateral (external reference: @turf/turf, planar for small areas)', () => {
     const ring: Array<[number, number]> = [[14.97, 24.603], [15.0015, 24.603], [14.9975, 24.639], [14.97, 24.639]];
-    // turf.centroid is the vertex mean; for this near-trapezoid compare with the area centroid loosely and check area sign use.
+    // turf.centroid is the vertex mean, which for this near-rectangle lies within 0.002° of the area centroid.
     const c = ringCentroid(ring);
     const t = centroid(polygon([[...ring, ring[0]]])).geometry.coordinates;
     expect(Math.abs(c[0] - t[0])).toBeLessThan(0.002);
     expect(Math.abs(c[1] - t[1])).toBeLessThan(0.002);
-    expect(area(polygon([[...ring, ring[0]]]))).toBeGreaterThan(0);
   });
   it('ringCentroid of a unit square is its centre (analytic)', () => {
     expect(ringCentroid([[0, 0], [1, 0], [1, 1], [0, 1]])).toEqual([0.5, 0.5]);
