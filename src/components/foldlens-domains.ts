@@ -18,6 +18,10 @@ const coneText = (d: Domain) => (d.analysis?.cone95 != null ? `±${d.analysis.co
  * `foldlens-domain-undo`.
  * Parts: `list`, `row`, `compare`, `undo`.
  * CSS custom properties: `--fl-bg`, `--fl-fg`, `--fl-muted`, `--fl-border`, `--fl-accent`.
+ * @example
+ * const list = document.createElement('foldlens-domains');
+ * list.domains = project.domains;
+ * list.addEventListener('foldlens-domain-save', (e) => saveDomain(e.detail.name));
  */
 export class FoldlensDomains extends LitElement {
   static override properties = {

@@ -12,6 +12,10 @@ import { defineOnce } from './define';
  * Events: `foldlens-kind-filter` {detail: {visibleKinds: string[] | null}} (bubbles, composed).
  * Parts: `list`, `entry`, `symbol`, `toggle`.
  * CSS custom properties: `--fl-bg`, `--fl-fg`, `--fl-muted`, `--fl-border`, `--fl-font`.
+ * @example
+ * const legend = document.createElement('foldlens-legend');
+ * legend.stations = stations;
+ * legend.addEventListener('foldlens-kind-filter', (e) => foldlens.overlay.setVisibleKinds(e.detail.visibleKinds));
  */
 export class FoldlensLegend extends LitElement {
   static override properties = {

@@ -90,6 +90,11 @@ let instances = 0;
  * `--fl-net-grid`, `--fl-net-pole`, `--fl-net-great-circle`, `--fl-net-line`,
  * `--fl-net-contour`, `--fl-net-girdle`, `--fl-net-axis`, `--fl-net-beta`, `--fl-net-limb`,
  * `--fl-net-highlight`, `--fl-net-halo` (defaults in net/netStyle.ts).
+ * @example
+ * const net = document.createElement('foldlens-net');
+ * net.analysis = analyzeFold({ planes });
+ * net.planes = planes;
+ * download(net.toSvg());
  */
 export class FoldlensNet extends LitElement {
   static override properties = {

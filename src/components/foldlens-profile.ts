@@ -82,6 +82,9 @@ let instances = 0;
  * `--fl-profile-frame`, `--fl-profile-topography`, `--fl-profile-contact`, `--fl-profile-fault`,
  * `--fl-profile-station`, `--fl-profile-highlight`, `--fl-profile-halo` (defaults in
  * profile/profileStyle.ts).
+ * @example
+ * const panel = document.createElement('foldlens-profile');
+ * panel.data = buildProfileData({ stations, axis: { trend: 75, plunge: 12 }, ring });
  */
 export class FoldlensProfile extends LitElement {
   static override properties = {

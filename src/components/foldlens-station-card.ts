@@ -15,6 +15,9 @@ const pad = (n: number, width: number) => String(Math.round(n) % (width === 3 ? 
  * Events: `foldlens-close` when the close button is pressed (bubbles, composed).
  * Parts: `card`, `title`, `fields`, `close`.
  * CSS custom properties: `--fl-bg`, `--fl-fg`, `--fl-muted`, `--fl-border`, `--fl-accent`, `--fl-danger`.
+ * @example
+ * const card = document.createElement('foldlens-station-card');
+ * foldlens.addEventListener('stationclick', (e) => (card.station = foldlens.getStations()[e.detail.index]));
  */
 export class FoldlensStationCard extends LitElement {
   static override properties = {

@@ -26,6 +26,9 @@ const COMBINES: ReadonlyArray<{ id: ToolbarCombine; label: string; hint: string 
  * Keyboard: P, L, G, B pick a tool while focus is in the toolbar; Escape clears a shape in progress (map).
  * Parts: `bar`, `tool`, `combine`, `clear`.
  * CSS custom properties: `--fl-bg`, `--fl-fg`, `--fl-accent`, `--fl-border`, `--fl-font`.
+ * @example
+ * const toolbar = document.createElement('foldlens-toolbar');
+ * toolbar.addEventListener('foldlens-tool', (e) => foldlens.setTool(e.detail.tool === 'pan' ? null : e.detail.tool));
  */
 export class FoldlensToolbar extends LitElement {
   static override properties = {

@@ -96,10 +96,18 @@ export interface NetGridNodes {
   readonly evaluated: Uint8Array;
 }
 
-/** Default nodes across the primitive's diameter. */
+/**
+ * Default nodes across the primitive's diameter.
+ * @example
+ * const nodes = DEFAULT_DENSITY_RESOLUTION ** 2; // grid nodes before the circle is cut out
+ */
 export const DEFAULT_DENSITY_RESOLUTION = 101;
 
-/** Default contour interval in sigma (common practice for Kamb contours). */
+/**
+ * Default contour interval in sigma (common practice for Kamb contours).
+ * @example
+ * const secondLevel = 2 * DEFAULT_CONTOUR_INTERVAL; // 4 sigma
+ */
 export const DEFAULT_CONTOUR_INTERVAL = 2;
 
 /** Largest number of contour levels returned, so a tiny interval cannot produce a huge array. */

@@ -52,18 +52,30 @@ export function compareDomains(a: Pick<Domain, 'name' | 'analysis'>, b: Pick<Dom
   return { angle, conesOverlap, text };
 }
 
-/** A fresh id for a domain (time plus a random part; stable once saved). */
+/**
+ * A fresh id for a domain (time plus a random part; stable once saved).
+ * @example
+ * newDomainId(0, () => 0) // 'd-0-0000'
+ */
 export function newDomainId(now = Date.now(), random = Math.random): string {
   return `d-${now.toString(36)}-${Math.floor(random() * 36 ** 4).toString(36).padStart(4, '0')}`;
 }
 
-/** The next default name: "Domain 1", "Domain 2", ... skipping names in use. */
+/**
+ * The next default name: "Domain 1", "Domain 2", ... skipping names in use.
+ * @example
+ * nextDomainName([{ name: 'Domain 1' }]) // 'Domain 2'
+ */
 export function nextDomainName(existing: readonly Pick<Domain, 'name'>[]): string {
   const used = new Set(existing.map((d) => d.name));
   for (let k = 1; ; k++) if (!used.has(`Domain ${k}`)) return `Domain ${k}`;
 }
 
-/** Centroid of a lon/lat ring (area-weighted; falls back to the vertex mean for degenerate rings). */
+/**
+ * Centroid of a lon/lat ring (area-weighted; falls back to the vertex mean for degenerate rings).
+ * @example
+ * ringCentroid([[0, 0], [2, 0], [2, 2], [0, 2], [0, 0]]) // [1, 1]
+ */
 export function ringCentroid(ring: ReadonlyArray<readonly [number, number]>): [number, number] {
   let a = 0;
   let cx = 0;

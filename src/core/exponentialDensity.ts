@@ -42,7 +42,11 @@ export interface ExponentialParameters {
   readonly countingAngle: number;
 }
 
-/** Default truncation tolerance in sigma. */
+/**
+ * Default truncation tolerance in sigma.
+ * @example
+ * const tolerance = DEFAULT_EXPONENTIAL_TOLERANCE / 10; // a finer truncation
+ */
 export const DEFAULT_EXPONENTIAL_TOLERANCE = 1e-6;
 
 /**

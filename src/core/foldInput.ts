@@ -6,6 +6,8 @@ import { isUsable, type Station } from './station';
  * Planar kinds analysed as the folded surface by default. Cleavage, axial planes, joints,
  * faults and veins are left out: they are not the surface that was folded (axial-planar
  * cleavage, for one, would pull the girdle toward the axial plane). Common practice.
+ * @example
+ * foldInputFromStations(stations, selected, { planeKinds: [...DEFAULT_FOLDED_KINDS, 'foliation'] });
  */
 export const DEFAULT_FOLDED_KINDS: readonly PlaneKind[] = ['bedding'];
 
@@ -13,6 +15,8 @@ export const DEFAULT_FOLDED_KINDS: readonly PlaneKind[] = ['bedding'];
  * Linear kinds compared with the fold axis by default: fold hinges, intersection lineations and
  * generic lineations. Slickenlines and mineral (stretching) lineations need not parallel the
  * axis and are left out. Common practice.
+ * @example
+ * DEFAULT_AXIS_LINE_KINDS.includes('slickenline') // false
  */
 export const DEFAULT_AXIS_LINE_KINDS: readonly LineKind[] = ['hinge', 'intersection', 'lineation'];
 

@@ -15,6 +15,8 @@ import { add, cross, dot, lineToVector, negate, norm, normalize, planeNormal, pl
  * Default tolerance, in degrees, below which two lines (or two plane normals) count as
  * parallel. Unit-vector round-off is near 1e-14 rad, so 1e-6° (about 2e-8 rad) only catches
  * true parallels, never field data that merely lie close together.
+ * @example
+ * planeThroughLines(a, b, 10 * PARALLEL_TOLERANCE_DEGREES);
  */
 export const PARALLEL_TOLERANCE_DEGREES = 1e-6;
 

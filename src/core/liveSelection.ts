@@ -15,6 +15,11 @@ export type SelectionCombine = 'replace' | 'add' | 'subtract';
  * under the even-odd rule, so a move tests only the points in that triangle's bounding box
  * (found with a flatbush R-tree) instead of every point against every edge.
  * Polygons and rectangles whose vertices all move are evaluated in full within their bounds.
+ * @example
+ * const live = new LiveSelection(xy, poles); // xy: projected x, y pairs
+ * live.begin('replace');
+ * for (const [x, y] of pointerPath) live.addLassoVertex(x, y);
+ * const fit = fitGirdleFromSums(live.tensorSums());
  */
 export class LiveSelection {
   readonly size: number;

@@ -40,7 +40,11 @@ export function ringGrowthFlips(x: number, y: number, ax: number, ay: number, bx
   return flip;
 }
 
-/** Bounding box [minX, minY, maxX, maxY] of a flat coordinate array. */
+/**
+ * Bounding box [minX, minY, maxX, maxY] of a flat coordinate array.
+ * @example
+ * boundsOf([0, 0, 4, 2, 1, 5]) // [0, 0, 4, 5]
+ */
 export function boundsOf(coords: ArrayLike<number>): [number, number, number, number] {
   let minX = Infinity;
   let minY = Infinity;

@@ -48,12 +48,21 @@ export interface AzimuthCorrection {
   readonly source: string;
 }
 
-/** Whether a station can take part in analysis. */
+/**
+ * Whether a station can take part in analysis.
+ * @example
+ * const usable = stations.filter(isUsable);
+ */
 export function isUsable(station: Station): boolean {
   return station.problems.length === 0 && (station.plane !== undefined || station.line !== undefined);
 }
 
-/** Formats a row problem as a sentence: "row 14, column dip: 95 is not a dip (0 to 90)". */
+/**
+ * Formats a row problem as a sentence: "row 14, column dip: 95 is not a dip (0 to 90)".
+ * @example
+ * describeProblem({ row: 14, column: 'dip', value: '95', expected: 'a dip from 0 to 90' })
+ * // 'row 14, column dip: "95"; expected a dip from 0 to 90'
+ */
 export function describeProblem(p: RowProblem): string {
   const value = p.value === '' ? 'empty' : `"${p.value}"`;
   return `row ${p.row}, column ${p.column}: ${value}; expected ${p.expected}`;

@@ -29,22 +29,39 @@ export interface Plane {
   readonly dip: number;
 }
 
-/** Kinds of planar measurement the trade records. */
+/**
+ * Kinds of planar measurement the trade records.
+ * @example
+ * PLANE_KINDS.length // 9
+ */
 export const PLANE_KINDS = ['bedding', 'foliation', 'cleavage', 'joint', 'fault', 'vein', 'axial-plane', 'contact', 'plane'] as const;
 export type PlaneKind = (typeof PLANE_KINDS)[number];
 
-/** Kinds of linear measurement the trade records. */
+/**
+ * Kinds of linear measurement the trade records.
+ * @example
+ * LINE_KINDS.includes('intersection') // true
+ */
 export const LINE_KINDS = ['lineation', 'hinge', 'intersection', 'slickenline', 'mineral-lineation', 'line'] as const;
 export type LineKind = (typeof LINE_KINDS)[number];
 
 export type MeasurementKind = PlaneKind | LineKind;
 
-/** Whether a kind is planar. */
+/**
+ * Whether a kind is planar.
+ * @example
+ * isPlaneKind('bedding') // true
+ * isPlaneKind('hinge') // false
+ */
 export function isPlaneKind(kind: string): kind is PlaneKind {
   return (PLANE_KINDS as readonly string[]).includes(kind);
 }
 
-/** Whether a kind is linear. */
+/**
+ * Whether a kind is linear.
+ * @example
+ * isLineKind('hinge') // true
+ */
 export function isLineKind(kind: string): kind is LineKind {
   return (LINE_KINDS as readonly string[]).includes(kind);
 }

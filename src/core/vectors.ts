@@ -1,23 +1,57 @@
 import { acosClamped, normalizeAzimuth, toDegrees, toRadians, EPSILON } from './math';
 import type { Line, Plane, Vec3 } from './types';
 
-/** Vector from components. */
+/**
+ * Vector from components.
+ * @example
+ * const north = vec3(1, 0, 0);
+ */
 export const vec3 = (x: number, y: number, z: number): Vec3 => ({ x, y, z });
 
+/**
+ * Dot product of two vectors.
+ * @example
+ * dot(vec3(1, 0, 0), vec3(0, 1, 0)) // 0
+ */
 export const dot = (a: Vec3, b: Vec3): number => a.x * b.x + a.y * b.y + a.z * b.z;
 
+/**
+ * Cross product a x b (right-handed; with north, east, down axes, north x east = down).
+ * @example
+ * cross(vec3(1, 0, 0), vec3(0, 1, 0)) // {x: 0, y: 0, z: 1}
+ */
 export const cross = (a: Vec3, b: Vec3): Vec3 => ({
   x: a.y * b.z - a.z * b.y,
   y: a.z * b.x - a.x * b.z,
   z: a.x * b.y - a.y * b.x,
 });
 
+/**
+ * Euclidean length of a vector.
+ * @example
+ * norm(vec3(3, 4, 0)) // 5
+ */
 export const norm = (a: Vec3): number => Math.hypot(a.x, a.y, a.z);
 
+/**
+ * A vector times a number.
+ * @example
+ * scale(vec3(1, 2, 3), 2) // {x: 2, y: 4, z: 6}
+ */
 export const scale = (a: Vec3, k: number): Vec3 => ({ x: a.x * k, y: a.y * k, z: a.z * k });
 
+/**
+ * Sum of two vectors.
+ * @example
+ * add(vec3(1, 0, 0), vec3(0, 1, 0)) // {x: 1, y: 1, z: 0}
+ */
 export const add = (a: Vec3, b: Vec3): Vec3 => ({ x: a.x + b.x, y: a.y + b.y, z: a.z + b.z });
 
+/**
+ * The opposite vector (the same axis, other sense).
+ * @example
+ * negate(vec3(1, -2, 0)) // {x: -1, y: 2, z: 0}
+ */
 export const negate = (a: Vec3): Vec3 => ({ x: -a.x, y: -a.y, z: -a.z });
 
 /**
@@ -30,7 +64,11 @@ export function normalize(a: Vec3): Vec3 {
   return scale(a, 1 / n);
 }
 
-/** Flips a vector into the lower hemisphere (z >= 0); horizontal vectors keep trend in [0, 180). */
+/**
+ * Flips a vector into the lower hemisphere (z >= 0); horizontal vectors keep trend in [0, 180).
+ * @example
+ * toLowerHemisphere(vec3(0, 0, -1)) // {x: 0, y: 0, z: 1} (vertical line, plunge 90)
+ */
 export function toLowerHemisphere(a: Vec3): Vec3 {
   if (a.z > EPSILON) return a;
   if (a.z < -EPSILON) return negate(a);
@@ -81,22 +119,38 @@ export function planeOf(pole: Line): Plane {
   return { dipDirection: normalizeAzimuth(pole.trend + 180), dip: 90 - pole.plunge };
 }
 
-/** Unit normal of a plane, pointing into the lower hemisphere. */
+/**
+ * Unit normal of a plane, pointing into the lower hemisphere.
+ * @example
+ * planeNormal({ dipDirection: 90, dip: 90 }) // about {x: 0, y: -1, z: 0}: a horizontal pole trending 270
+ */
 export function planeNormal(plane: Plane): Vec3 {
   return lineToVector(poleOf(plane));
 }
 
-/** The plane whose normal is v (any sense). */
+/**
+ * The plane whose normal is v (any sense).
+ * @example
+ * normalToPlane(vec3(0, 0, 1)).dip // 0: a vertical pole belongs to a horizontal plane
+ */
 export function normalToPlane(v: Vec3): Plane {
   return planeOf(vectorToLine(v));
 }
 
-/** Angle in degrees between two vectors, in [0, 180]. */
+/**
+ * Angle in degrees between two vectors, in [0, 180].
+ * @example
+ * angleBetweenVectors(vec3(1, 0, 0), vec3(-1, 0, 0)) // 180
+ */
 export function angleBetweenVectors(a: Vec3, b: Vec3): number {
   return toDegrees(acosClamped(dot(a, b) / (norm(a) * norm(b))));
 }
 
-/** Angle in degrees between two axes (lines without sense), in [0, 90]. */
+/**
+ * Angle in degrees between two axes (lines without sense), in [0, 90].
+ * @example
+ * axialAngle(vec3(1, 0, 0), vec3(-1, 0, 0)) // 0: the same axis
+ */
 export function axialAngle(a: Vec3, b: Vec3): number {
   return toDegrees(acosClamped(Math.abs(dot(a, b)) / (norm(a) * norm(b))));
 }

@@ -62,8 +62,15 @@ export interface AlongPlungeOptions {
   readonly minAngle?: number;
 }
 
-/** Codes in {@link SectionProjection.segment} for points not projected. */
+/**
+ * Code in {@link SectionProjection.segment} for a point farther from the section than the swath.
+ * @example const skipped = projection.segment.filter((s) => s === OUTSIDE_SWATH).length;
+ */
 export const OUTSIDE_SWATH = -1;
+/**
+ * Code in {@link SectionProjection.segment} for a point whose axis-parallel line passes beyond the section's ends.
+ * @example const beyondEnds = projection.segment.filter((s) => s === MISSES_SECTION).length;
+ */
 export const MISSES_SECTION = -2;
 
 /** Points projected along the plunge onto a section, index for index with the input. */

@@ -1,6 +1,10 @@
 import { DEG, clamp } from './math';
 
-/** Latitude limit of Web Mercator (EPSG:3857), degrees. */
+/**
+ * Latitude limit of Web Mercator (EPSG:3857), degrees.
+ * @example
+ * const lat = clamp(latitude, -MERCATOR_MAX_LATITUDE, MERCATOR_MAX_LATITUDE);
+ */
 export const MERCATOR_MAX_LATITUDE = 85.0511287798066;
 
 /**

@@ -22,6 +22,10 @@ const pad = (n: number, w: number) => String(Math.round(n) % 360).padStart(w, '0
  *
  * Events: `domainringchange` while a vertex is dragged and `domainringend` when it is dropped,
  * both with {@link DomainRingDetail}; `domainclick` {id} when an outline is clicked.
+ * @example
+ * const layer = new DomainLayer(map);
+ * layer.setDomains(project.domains);
+ * layer.addEventListener('domainringend', (e) => updateDomain(e.detail));
  */
 export class DomainLayer extends EventTarget {
   private readonly map: MapLibreMap;

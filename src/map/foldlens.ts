@@ -28,6 +28,11 @@ export interface SelectionChangeDetail {
  *
  * Events (CustomEvent on this object): `selectionchange` ({@link SelectionChangeDetail}),
  * `stationclick` and `stationhover` (forwarded from the overlay).
+ * @example
+ * const foldlens = new Foldlens(map); // or attachFoldlens(map)
+ * foldlens.setStations(stations);
+ * foldlens.addEventListener('selectionchange', (e) => console.log(e.detail.indices.length));
+ * foldlens.setTool('lasso');
  */
 export class Foldlens extends EventTarget {
   readonly map: MapLibreMap;

@@ -21,6 +21,11 @@ export interface FoldlensOverlayOptions {
   readonly selectionColor: string;
 }
 
+/**
+ * Defaults of {@link FoldlensOverlayOptions}; pass a partial object to override any of them.
+ * @example
+ * attachFoldlens(map, { ...defaultOverlayOptions, idPrefix: 'geo' });
+ */
 export const defaultOverlayOptions: FoldlensOverlayOptions = {
   idPrefix: 'foldlens',
   show: { symbols: true, labels: true, dots: true },
@@ -52,6 +57,10 @@ export interface StationEventDetail {
  * ratio, re-adds itself when the host swaps style, and removes every trace on `remove()`.
  *
  * Events (DOM CustomEvents on the overlay): `stationclick`, `stationhover` with {@link StationEventDetail}.
+ * @example
+ * const overlay = new FoldlensOverlay(map, { show: { symbols: true, labels: false, dots: true } });
+ * overlay.setStations(stations);
+ * overlay.setSelection([0, 4, 7]);
  */
 export class FoldlensOverlay extends EventTarget {
   readonly options: FoldlensOverlayOptions;

@@ -7,7 +7,12 @@ import workerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url';
 
 let configured = false;
 
-/** Points MapLibre at its worker bundle; safe to call more than once. */
+/**
+ * Points MapLibre at its worker bundle; safe to call more than once.
+ * @example
+ * import { configureMapLibre } from 'foldlens';
+ * configureMapLibre(); // before the first new Map(...)
+ */
 export function configureMapLibre(): void {
   if (configured) return;
   setWorkerUrl(workerUrl);

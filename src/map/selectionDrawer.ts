@@ -26,6 +26,10 @@ const LASSO_STEP_PX = 3;
  *
  * Events on the drawer: `shapestart`, `shapechange`, `shapeend`, `shapecancel`, each with
  * {@link ShapeEventDetail}.
+ * @example
+ * const drawer = new SelectionDrawer(map);
+ * drawer.addEventListener('shapeend', (e) => console.log(e.detail));
+ * drawer.setTool('polygon');
  */
 export class SelectionDrawer extends EventTarget {
   /** Combine mode used when no modifier key is held (toolbar toggle, touch). */

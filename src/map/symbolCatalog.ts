@@ -20,7 +20,11 @@ export type HingeSense = 'antiform' | 'synform' | 'unknown';
 /** A dip within this many degrees of 0 or 90 is drawn as horizontal or vertical (readings are whole degrees). */
 export const LEVEL_TOLERANCE = 0.5;
 
-/** Colours per kind: distinct in hue and lightness, readable on light and dark basemaps behind a white halo. */
+/**
+ * Colours per kind: distinct in hue and lightness, readable on light and dark basemaps behind a white halo.
+ * @example
+ * const [r, g, b] = KIND_COLORS.hinge;
+ */
 export const KIND_COLORS: Readonly<Record<PlaneKind | LineKind, Rgb>> = {
   bedding: [28, 43, 56],
   foliation: [118, 52, 140],
@@ -39,7 +43,11 @@ export const KIND_COLORS: Readonly<Record<PlaneKind | LineKind, Rgb>> = {
   line: [60, 60, 60],
 };
 
-/** Words for the legend. */
+/**
+ * Words for the legend.
+ * @example
+ * KIND_LABELS['axial-plane'] // 'Axial plane'
+ */
 export const KIND_LABELS: Readonly<Record<PlaneKind | LineKind, string>> = {
   bedding: 'Bedding',
   foliation: 'Foliation',

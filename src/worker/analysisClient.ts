@@ -6,6 +6,10 @@ type Reply = { ok: true; result: AnalysisJobResult } | { ok: false; id: number; 
  * Sends analysis jobs to a web worker, newest first: a job that is overtaken by a newer one
  * before its answer arrives is dropped, so the panel always shows the latest selection.
  * Falls back to running on the main thread where workers are unavailable.
+ * @example
+ * const client = new AnalysisClient();
+ * const result = await client.run({ planes, lines: [], bootstrap: 500, seed: 1, density: 'kamb', net: 'equal-area' });
+ * if (result) console.log(result.analysis.axis);
  */
 export class AnalysisClient {
   private worker: Worker | null = null;

@@ -12,6 +12,11 @@
  */
 import { azimuthDifference, normalizeAzimuth } from '../math';
 
+/**
+ * The eight compass letters that quadrant notations may use.
+ * @example
+ * COMPASS_POINTS.includes('NE') // true
+ */
 export const COMPASS_POINTS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'] as const;
 /** One of the eight compass letters, upper case. */
 export type CompassPoint = (typeof COMPASS_POINTS)[number];

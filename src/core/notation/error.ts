@@ -4,6 +4,10 @@
  * Importers turn it into a row problem: `value` is the text exactly as given (never trimmed
  * or altered), `expected` says in words what would have been read, and `problem` names what
  * is wrong with this value, so that a message built from any pair of them is useful.
+ * @example
+ * try { parsePlane('095/45', 'dipdir'); } catch (e) {
+ *   if (e instanceof NotationError) console.log(e.field, e.value, e.expected);
+ * }
  */
 export class NotationError extends Error {
   /** The text (or number, as text) that could not be read, exactly as given. */
@@ -34,6 +38,9 @@ export class NotationError extends Error {
  * The same facts as a NotationError, as a plain object with no stack trace. Capturing a stack
  * costs far more than parsing a field, so the parsers use this inside and for the `tryParse*`
  * functions that bulk imports call; the throwing parsers turn it into a NotationError.
+ * @example
+ * const r = tryParsePlane('N30E 95SE', 'strike-quadrant');
+ * if (r instanceof NotationProblem) report(r.problem);
  */
 export class NotationProblem {
   readonly value: string;

@@ -13,6 +13,11 @@ import { OVERTURNED_WORDS, readAngle, readCompass, readDirection, readSeparator,
  */
 export type LineNotation = 'azimuth' | 'quadrant' | 'auto';
 
+/**
+ * Every line notation, for pickers and argument checks.
+ * @example
+ * LINE_NOTATIONS.includes('quadrant') // true
+ */
 export const LINE_NOTATIONS: readonly LineNotation[] = ['azimuth', 'quadrant', 'auto'];
 
 const LINE_EXPECTED: Readonly<Record<LineNotation, string>> = {

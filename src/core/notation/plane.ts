@@ -18,6 +18,11 @@ import { OVERTURNED_WORDS, readAngle, readCompass, readDirection, readSeparator,
  */
 export type PlaneNotation = 'dipdir' | 'rhr' | 'strike-quadrant' | 'quadrant' | 'auto';
 
+/**
+ * Every plane notation, for pickers and argument checks.
+ * @example
+ * for (const n of PLANE_NOTATIONS) select.add(new Option(n));
+ */
 export const PLANE_NOTATIONS: readonly PlaneNotation[] = ['dipdir', 'rhr', 'strike-quadrant', 'quadrant', 'auto'];
 
 /** What each notation expects, in words, for messages. */
