@@ -7,7 +7,7 @@ export type ToolbarCombine = 'replace' | 'add' | 'subtract';
 const TOOLS: ReadonlyArray<{ id: ToolbarTool; label: string; key: string; hint: string }> = [
   { id: 'pan', label: 'Pan', key: 'P', hint: 'Move the map' },
   { id: 'lasso', label: 'Lasso', key: 'L', hint: 'Press and draw around stations' },
-  { id: 'polygon', label: 'Polygon', key: 'G', hint: 'Click corners; click the first corner, double-click or press Enter to finish' },
+  { id: 'polygon', label: 'Polygon', key: 'G', hint: 'Click corners; click the first corner, double-click or press Enter to finish. Keyboard: on the focused map, Space adds a corner at the centre cross' },
   { id: 'rectangle', label: 'Box', key: 'B', hint: 'Press and drag a box' },
 ];
 

@@ -24,6 +24,11 @@ const LASSO_STEP_PX = 3;
  * subtracts; on touch the combine mode comes from {@link SelectionDrawer.combine}. Escape
  * cancels. While a tool is active the map does not pan with the pointer.
  *
+ * Keyboard (polygon tool, map focused): the map's own arrow keys and +/- move and zoom it under
+ * a crosshair at the centre; Space drops a corner at the crosshair, Backspace takes back the
+ * last one, Enter finishes and Escape cancels. A polite live region says what happened, so the
+ * polygon can be drawn without a pointer or a screen.
+ *
  * Events on the drawer: `shapestart`, `shapechange`, `shapeend`, `shapecancel`, each with
  * {@link ShapeEventDetail}.
  * @example
@@ -46,6 +51,9 @@ export class SelectionDrawer extends EventTarget {
   private hover: [number, number] | null = null;
   /** The last finished shape, drawn until replaced or cleared. */
   private finished: Array<[number, number]> = [];
+  /** Centre mark for keyboard drawing, and the live region that reads out each step. */
+  private readonly crosshair: HTMLElement;
+  private readonly announcer: HTMLElement;
 
   constructor(map: MapLibreMap, idPrefix = 'foldlens') {
     super();
@@ -57,7 +65,23 @@ export class SelectionDrawer extends EventTarget {
     el.addEventListener('pointerup', this.onUp);
     el.addEventListener('pointercancel', this.onCancelPointer);
     el.addEventListener('dblclick', this.onDoubleClick);
+    el.addEventListener('keydown', this.onCanvasKey);
     window.addEventListener('keydown', this.onKey);
+    this.crosshair = document.createElement('div');
+    this.crosshair.className = 'foldlens-crosshair';
+    this.crosshair.hidden = true;
+    this.crosshair.setAttribute('aria-hidden', 'true');
+    // Layout set through the CSSOM so it works without the stylesheet and under a strict CSP;
+    // the look (colour, size) can be themed with the class in styles/foldlens.css.
+    Object.assign(this.crosshair.style, { position: 'absolute', left: '50%', top: '50%', width: '24px', height: '24px', margin: '-12px 0 0 -12px', pointerEvents: 'none', zIndex: '2' });
+    this.announcer = document.createElement('div');
+    this.announcer.className = 'foldlens-announcer';
+    Object.assign(this.announcer.style, { position: 'absolute', width: '1px', height: '1px', overflow: 'hidden', clip: 'rect(0 0 0 0)', whiteSpace: 'nowrap' });
+    this.announcer.setAttribute('role', 'status');
+    this.announcer.setAttribute('aria-live', 'polite');
+    map.getContainer().append(this.crosshair, this.announcer);
+    map.getCanvas().addEventListener('focus', this.updateCrosshair);
+    map.getCanvas().addEventListener('blur', this.updateCrosshair);
     map.on('style.load', this.install);
     if (map.isStyleLoaded()) this.install();
   }
@@ -77,6 +101,8 @@ export class SelectionDrawer extends EventTarget {
     const wasPanning = this.tool === null;
     this.tool = tool;
     this.map.getCanvas().style.cursor = tool ? 'crosshair' : '';
+    this.updateCrosshair();
+    if (tool === 'polygon') this.announce('Polygon tool. On the focused map: arrow keys move the map under the centre cross, Space adds a corner there, Backspace removes the last corner, Enter finishes, Escape cancels.');
     if (tool) {
       // Remember the host's pan setting only when leaving pan mode, not when switching tools.
       if (wasPanning) this.dragPanWasOn = this.map.dragPan.isEnabled();
@@ -99,6 +125,25 @@ export class SelectionDrawer extends EventTarget {
     this.screen.push([p.x, p.y]);
     this.emit('shapechange', 1);
     this.draw();
+  }
+
+  /** Adds a polygon vertex at the centre of the map view (the keyboard's crosshair). */
+  addVertexAtCentre(combine: SelectionCombine = this.combine): void {
+    const c = this.map.getCenter();
+    this.addPolygonVertex([c.lng, c.lat], this.active ? this.gestureCombine : combine);
+    const n = this.ring.length;
+    this.announce(`Corner ${n} at ${c.lat.toFixed(5)}, ${c.lng.toFixed(5)}.${n >= 3 ? ' Enter finishes the polygon.' : ` ${3 - n} more needed.`}`);
+  }
+
+  /** Takes back the last polygon vertex; cancels when none is left. */
+  removeLastVertex(): void {
+    if (!this.active || this.tool !== 'polygon') return;
+    this.ring.pop();
+    this.screen.pop();
+    if (this.ring.length === 0) return this.cancel();
+    this.emit('shapechange', 0);
+    this.draw();
+    this.announce(`Corner removed; ${this.ring.length} left.`);
   }
 
   /** Finishes the polygon being drawn (needs three vertices). */
@@ -131,9 +176,14 @@ export class SelectionDrawer extends EventTarget {
     el.removeEventListener('pointerup', this.onUp);
     el.removeEventListener('pointercancel', this.onCancelPointer);
     el.removeEventListener('dblclick', this.onDoubleClick);
+    el.removeEventListener('keydown', this.onCanvasKey);
+    this.map.getCanvas().removeEventListener('focus', this.updateCrosshair);
+    this.map.getCanvas().removeEventListener('blur', this.updateCrosshair);
     window.removeEventListener('keydown', this.onKey);
     this.map.off('style.load', this.install);
     if (this.tool) this.setTool(null);
+    this.crosshair.remove();
+    this.announcer.remove();
     if (!this.map.style) return;
     for (const id of [`${this.prefix}-shape-fill`, `${this.prefix}-shape-line`]) if (this.map.getLayer(id)) this.map.removeLayer(id);
     if (this.map.getSource(this.sourceId)) this.map.removeSource(this.sourceId);
@@ -248,9 +298,36 @@ export class SelectionDrawer extends EventTarget {
 
   private readonly onKey = (e: KeyboardEvent): void => {
     if (!this.active) return;
-    if (e.key === 'Escape') this.cancel();
-    else if (e.key === 'Enter' && this.tool === 'polygon') this.finishPolygon();
+    if (e.key === 'Escape') {
+      this.cancel();
+      if (this.tool === 'polygon') this.announce('Polygon cancelled.');
+    } else if (e.key === 'Enter' && this.tool === 'polygon') {
+      const n = this.ring.length;
+      this.finishPolygon();
+      this.announce(n >= 3 ? `Polygon of ${n} corners finished.` : 'A polygon needs three corners; cancelled.');
+    }
   };
+
+  /** Space and Backspace on the focused map; the map keeps its own arrow and zoom keys. */
+  private readonly onCanvasKey = (e: KeyboardEvent): void => {
+    if (this.tool !== 'polygon' || e.ctrlKey || e.metaKey || e.altKey) return;
+    if (e.key === ' ') {
+      e.preventDefault();
+      this.addVertexAtCentre(e.shiftKey ? 'add' : this.combine);
+    } else if (e.key === 'Backspace') {
+      e.preventDefault();
+      this.removeLastVertex();
+    }
+  };
+
+  /** The centre cross shows only while the polygon tool is on and the map has keyboard focus. */
+  private readonly updateCrosshair = (): void => {
+    this.crosshair.hidden = !(this.tool === 'polygon' && document.activeElement === this.map.getCanvas());
+  };
+
+  private announce(text: string): void {
+    this.announcer.textContent = text;
+  }
 
   private setRectangle(a: [number, number], b: [number, number]): void {
     // Four screen corners; unprojected they form the ground polygon seen on screen at any bearing/pitch.
