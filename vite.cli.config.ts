@@ -11,6 +11,7 @@ const builtins = new Set([...builtinModules, ...builtinModules.map((m) => `node:
 const isExternal = (id: string): boolean => builtins.has(id) || id.startsWith('node:') || dependencies.some((d) => id === d || id.startsWith(`${d}/`));
 
 export default defineConfig({
+  publicDir: false, // public/ is the demo's (its service worker); the command line needs none of it
   build: {
     ssr: 'src/cli/main.ts',
     outDir: 'dist/cli',

@@ -10,6 +10,12 @@ const pkg = JSON.parse(readFileSync(new URL('./package.json', import.meta.url), 
 const external = [...Object.keys(pkg.dependencies ?? {}), ...Object.keys(pkg.peerDependencies ?? {})];
 
 export default defineConfig({
+  // public/ holds the demo's service worker; the package has no use for it.
+  publicDir: false,
+  // Relative asset URLs: the analysis and parse workers are then referenced as
+  // `new URL('assets/<worker>.js', import.meta.url)`, which the host's bundler finds and copies
+  // (an absolute '/assets/...' would point at the host site's root, where no worker is).
+  base: './',
   build: {
     outDir: 'dist/lib',
     emptyOutDir: true,

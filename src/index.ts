@@ -2,16 +2,19 @@
  * Foldlens: fold axes, equal-area nets and down-plunge profiles on any MapLibre GL JS map.
  *
  * @example
- * import { Map } from 'maplibre-gl';
- * import { attachFoldlens, configureMapLibre } from 'foldlens';
+ * import { Map, setWorkerUrl } from 'maplibre-gl';
+ * import maplibreWorkerUrl from 'maplibre-gl/dist/maplibre-gl-worker.mjs?url'; // Vite's way to a file's URL
+ * import { attachFoldlens } from 'foldlens';
  * import 'foldlens/styles/foldlens.css';
- * configureMapLibre();
+ * setWorkerUrl(maplibreWorkerUrl);
  * const map = new Map({ container: 'map', style: myStyle });
  * const foldlens = attachFoldlens(map);
  * map.on('load', () => foldlens.setStations(stations));
  */
 export * from './core/index';
-export { configureMapLibre } from './map/maplibreSetup';
+// configureMapLibre (src/map/maplibreSetup.ts) stays out of the package: its `?url` import works only in
+// a Vite production build and breaks Vite's dependency pre-bundling and other bundlers. MapLibre is the
+// host's peer dependency, so the host sets its worker URL (README, "Embedding Foldlens in your map").
 export { Foldlens, attachFoldlens, type SelectionChangeDetail } from './map/foldlens';
 export { FoldlensOverlay, defaultOverlayOptions, type FoldlensOverlayOptions, type StationEventDetail } from './map/foldlensOverlay';
 export { SelectionDrawer, type SelectionToolName, type ShapeEventDetail } from './map/selectionDrawer';

@@ -2,7 +2,8 @@
 // attaches Foldlens the way the README says, so a test can check it coexists and leaves cleanly.
 import 'maplibre-gl/dist/maplibre-gl.css';
 import { Map as MapLibreMap, type StyleSpecification } from 'maplibre-gl';
-import { attachFoldlens, configureMapLibre, readCsv, detectColumns, readStations } from '../../../src/index';
+import { attachFoldlens, readCsv, detectColumns, readStations } from '../../../src/index';
+import { configureMapLibre } from '../../../src/map/maplibreSetup'; // what a host does with setWorkerUrl (README)
 
 configureMapLibre();
 const hostStyle = (colour: string): StyleSpecification => ({
