@@ -39,7 +39,7 @@ export { FoldlensTable } from './components/foldlens-table';
 export { DomainLayer, type DomainRingDetail } from './map/domainLayer';
 export { buildProfileData } from './map/profileData';
 export { readDem } from './io/dem';
-export { parseProject, projectToJson, emptyProject, type FoldlensProject } from './io/projectFile';
+export { parseProject, projectToJson, emptyProject, ProjectFileError, type FoldlensProject } from './io/projectFile';
 export { openProjectStore, Autosave } from './io/projectStore';
 export { checkDomain } from './core/consistency/domainCheck';
 export { localAxisField } from './core/consistency/localAxisField';
