@@ -1,6 +1,6 @@
 import { booleanPointInPolygon, point } from '@turf/turf';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
-import { checkDomain, type DomainCheck, type DomainCheckOptions, type DomainPlane, type DomainSurface } from '../core/consistency/domainCheck';
+import { checkDomain, type DomainCheck, type DomainCheckOptions, type DomainLine, type DomainPlane, type DomainSurface } from '../core/consistency/domainCheck';
 import { partitionAxisField } from '../core/consistency/domainBoundaries';
 import { localAxisField } from '../core/consistency/localAxisField';
 import { buildConsistencyReport, CONSISTENCY_CAUTION, type ConsistencyReport } from '../core/consistency/report';
@@ -29,7 +29,8 @@ import { INPUT_OPTIONS, loadInput, readText, type CliIo } from './input';
  *
  * The consistency report (src/core/consistency): per structural domain, the measured lines
  * against the pi axis, the poles against their girdle with outliers and cylindricity, and, with
- * contact traces and heights, the map pattern against the axis; over the whole map, the local
+ * contact traces and heights, the map pattern against the axis (profile coherence, map-only
+ * axis, predicted attitudes, fold closures against the plunge); over the whole map, the local
  * fold axis field and the domains it suggests. Every number comes from src/core/consistency
  * (checkDomain, localAxisField, partitionAxisField, buildConsistencyReport).
  *
@@ -77,8 +78,10 @@ Checks a fold interpretation against itself, domain by domain: measured hinges a
 intersection lineations against the pi axis of the bedding; each bedding pole against the
 best-fit girdle (outliers, cylindricity); and, given contact traces with heights (--lines,
 --dem), the map pattern against the plunge: do the traces collapse onto one profile down the
-axis, which axis makes them tightest, and do measured planes near the traces have the
-attitude the axis and the trace predict? Over the whole map it computes the local fold
+axis, which axis makes them tightest, do measured planes near the traces have the
+attitude the axis and the trace predict, and do the fold closures on the map point the way
+the axis plunges (antiform closures down the plunge, synform closures up it, as hinge
+readings with a sense or the limb dips say)? Over the whole map it computes the local fold
 axis on a grid and suggests domains where the axis turns.
 
 Output: a text summary (--json for the full report); --html also writes a printable page.
@@ -163,7 +166,11 @@ export async function runCheck(argv: readonly string[], io: CliIo): Promise<numb
       const s = chosen[i];
       return { ...fold.planes[k], id: s.id, ...(frame && s.lon !== undefined && s.lat !== undefined && localXY(frame, s.lon, s.lat)) };
     });
-    const lines = Array.from(fold.lineIds, (i, k) => ({ trend: fold.lines[k].trend, plunge: fold.lines[k].plunge, id: chosen[i].id }));
+    const lines: DomainLine[] = Array.from(fold.lineIds, (i, k) => {
+      const s = chosen[i];
+      const sense = s.line?.sense;
+      return { trend: fold.lines[k].trend, plunge: fold.lines[k].plunge, id: s.id, ...(sense !== undefined && { sense }), ...(frame && s.lon !== undefined && s.lat !== undefined && localXY(frame, s.lon, s.lat)) };
+    });
     counts[`${area.id} planes`] = planes.length;
     counts[`${area.id} lines`] = lines.length;
     if (planes.length === 0) {
@@ -364,6 +371,7 @@ function summary(r: ConsistencyReport): string {
       if (mp.coherence) out.push(`  Map pattern: ${mp.coherence.reading}`);
       if (mp.search) out.push(`  Map-only axis: ${mp.search.reading}`);
       if (mp.predictions) out.push(`  Predicted attitudes: ${mp.predictions.reading}`);
+      if (mp.closures) out.push(`  Closures: ${mp.closures.reading}`);
       for (const n of mp.notes) out.push(`  ${n}`);
     }
     for (const f of d.flags) out.push(`  Flag (${f.code}): ${f.message}`);

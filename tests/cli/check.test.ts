@@ -88,7 +88,11 @@ describe('runCli(check) on the Korvane sample map', () => {
         const p = lonLatToLocal(frame, [chosen[i].lon!, chosen[i].lat!], [0]);
         return { ...fold.planes[j], id: chosen[i].id, x: p[0], y: p[1] };
       });
-      const lines = Array.from(fold.lineIds, (i, j) => ({ trend: fold.lines[j].trend, plunge: fold.lines[j].plunge, id: chosen[i].id }));
+      const lines = Array.from(fold.lineIds, (i, j) => {
+        const p = lonLatToLocal(frame, [chosen[i].lon!, chosen[i].lat!], [0]);
+        const sense = chosen[i].line!.sense;
+        return { trend: fold.lines[j].trend, plunge: fold.lines[j].plunge, id: chosen[i].id, ...(sense !== undefined && { sense }), x: p[0], y: p[1] };
+      });
       const bySurface = new Map<string, Float64Array[]>();
       linework.forEach((f, fi) =>
         f.parts.forEach((part, pk) => {
@@ -106,6 +110,11 @@ describe('runCli(check) on the Korvane sample map', () => {
       expect(report.domains[k]).toEqual(JSON.parse(JSON.stringify(direct)));
       // And the planted answer (truth.json): axes within 1° of 075/12 and 100/18.
       expect(angleBetweenLines(report.domains[k].axis!, d.axis)).toBeLessThan(1);
+    }
+    // Fold closures on the map (closures.ts): every one with a known sense points the way the planted axis plunges.
+    for (const d of report.domains) {
+      expect(d.mapPattern!.closures!.judged).toBeGreaterThan(5);
+      expect(d.mapPattern!.closures!.disagreeing).toBe(0);
     }
     expect(report.pairs[0].angle!).toBeGreaterThan(23);
     expect(report.field!.partition.regions.length).toBeGreaterThanOrEqual(2);

@@ -1,6 +1,7 @@
 import { analyzeFold, type FoldWarning } from '../foldAnalysis';
-import type { Line, Plane } from '../types';
+import type { FoldSense, Line, Plane } from '../types';
 import { compareAxisWithLines, type AxisVsLines, type MeasuredLine } from './axisVsLines';
+import { checkClosures, type ClosureCheck, type ClosurePiece } from './closures';
 import { girdleResiduals, type GirdleResiduals, type MeasuredPlane } from './girdleResiduals';
 import { profileCoherence, searchMapAxis, type MapAxisSearch, type ProfileCoherence } from './mapPatternAxis';
 import { compareWithMeasured, predictAttitudes, type PredictionCheck } from './predictedAttitudes';
@@ -9,7 +10,7 @@ import { compareWithMeasured, predictAttitudes, type PredictionCheck } from './p
  * Every consistency check of one structural domain, run in one call: the fold analysis
  * (foldAnalysis.ts), measured lines against the axis (axisVsLines.ts), poles against the girdle
  * (girdleResiduals.ts) and, when contact traces are given, the map pattern against the axis
- * (mapPatternAxis.ts, predictedAttitudes.ts). The flags of all of them are gathered into one
+ * (mapPatternAxis.ts, predictedAttitudes.ts, closures.ts). The flags of all of them are gathered into one
  * list with stable codes. The command line and the map both call this, so they report the
  * same numbers.
  *
@@ -29,6 +30,13 @@ export interface DomainPlane extends MeasuredPlane {
   readonly y?: number;
 }
 
+/** A measured line, optionally placed on the map; hinges may say which fold they close. */
+export interface DomainLine extends MeasuredLine {
+  readonly x?: number;
+  readonly y?: number;
+  readonly sense?: FoldSense;
+}
+
 /** The traces of one folded surface (one contact): its pieces, each east-north-up triples in order. */
 export interface DomainSurface {
   readonly name: string;
@@ -42,7 +50,7 @@ export interface DomainCheckInput {
   /** Planes of the folded surface (bedding by default; core/foldInput.ts chooses). */
   readonly planes: readonly DomainPlane[];
   /** Lines that should parallel the axis (hinges, intersection lineations). */
-  readonly lines: readonly MeasuredLine[];
+  readonly lines: readonly DomainLine[];
   /** Contact traces inside the domain, grouped by surface, with heights. */
   readonly surfaces?: readonly DomainSurface[];
   /** Grid convergence of the frame of the positions, degrees (true = grid + convergence); default 0. */
@@ -72,6 +80,10 @@ export interface DomainCheckOptions {
   readonly predictionRadius?: number;
   /** Flag predicted-versus-measured differences above this, degrees (default 20). */
   readonly predictionThreshold?: number;
+  /** Least fall along the trend on both sides of a closure on the map, metres (default 50). */
+  readonly closureDepth?: number;
+  /** Readings within this map distance of a closure's hinge say its sense, metres (default 250). */
+  readonly closureRadius?: number;
 }
 
 /** Stable codes of the flags. */
@@ -84,7 +96,8 @@ export type ConsistencyFlagCode =
   | 'traces-unconstrained'
   | 'map-pattern-prefers-other-axis'
   | 'map-axis-differs'
-  | 'predicted-attitudes-differ';
+  | 'predicted-attitudes-differ'
+  | 'closures-disagree';
 
 /** One finding worth a look. */
 export interface ConsistencyFlag {
@@ -102,6 +115,8 @@ export interface DomainMapPattern {
   readonly coherence: ProfileCoherence | null;
   readonly search: MapAxisSearch | null;
   readonly predictions: PredictionCheck | null;
+  /** Fold closures on the map against the plunge and the fold's sense. */
+  readonly closures: ClosureCheck | null;
   readonly notes: readonly string[];
 }
 
@@ -208,9 +223,10 @@ function checkMapPattern(input: DomainCheckInput, axis: Line, cone95: number | n
   }
   let predictions: PredictionCheck | null = null;
   const placed = input.planes.filter((p) => p.x !== undefined && p.y !== undefined && Number.isFinite(p.x) && Number.isFinite(p.y));
-  const pieces = input.surfaces!.flatMap((s) => s.pieces).filter((p) => p.length >= 6).map(rotate);
+  const named: ClosurePiece[] = input.surfaces!.flatMap((s) => s.pieces.filter((p) => p.length >= 6).map((p) => ({ surface: s.name, xyz: rotate(p) })));
+  const pieces = named.map((p) => p.xyz);
+  const xy = rotate(Float64Array.from(placed.flatMap((p) => [p.x!, p.y!, 0])));
   if (pieces.length > 0 && placed.length > 0) {
-    const xy = rotate(Float64Array.from(placed.flatMap((p) => [p.x!, p.y!, 0])));
     predictions = compareWithMeasured(
       predictAttitudes(pieces, axis),
       placed.map((p, i) => ({ x: xy[3 * i], y: xy[3 * i + 1], dipDirection: p.dipDirection, dip: p.dip, ...(p.id !== undefined && { id: p.id }) })),
@@ -222,7 +238,31 @@ function checkMapPattern(input: DomainCheckInput, axis: Line, cone95: number | n
   } else if (pieces.length > 0) {
     notes.push('No plane has a map position, so measured planes were not compared with predicted attitudes.');
   }
-  return { surfaces: surfaces.length, vertices, coherence, search, predictions, notes };
+  let closures: ClosureCheck | null = null;
+  if (pieces.length > 0) {
+    const lines = input.lines.filter((l) => l.x !== undefined && l.y !== undefined && Number.isFinite(l.x) && Number.isFinite(l.y));
+    const lxy = rotate(Float64Array.from(lines.flatMap((l) => [l.x!, l.y!, 0])));
+    closures = checkClosures(
+      named,
+      axis,
+      {
+        planes: placed.map((p, i) => ({ x: xy[3 * i], y: xy[3 * i + 1], dipDirection: p.dipDirection, dip: p.dip, ...(p.id !== undefined && { id: p.id }) })),
+        lines: lines.map((l, i) => ({ x: lxy[3 * i], y: lxy[3 * i + 1], trend: l.trend, plunge: l.plunge, ...(l.sense !== undefined && { sense: l.sense }), ...(l.id !== undefined && { id: l.id }) })),
+      },
+      { ...(options.closureDepth !== undefined && { depth: options.closureDepth }), ...(options.closureRadius !== undefined && { radius: options.closureRadius }) },
+    );
+    if (closures.disagreeing > 0) {
+      const bad = closures.closures.filter((c) => c.agrees === false);
+      const ids = [...new Set(bad.flatMap((c) => (c.senseFrom === 'hinges' ? c.hinges.ids : [])))];
+      flags.push({
+        code: 'closures-disagree',
+        severity: 'warning',
+        message: `${closures.disagreeing} of ${closures.judged} fold closures on the map point the wrong way for the axis ${fmtLine(axis)} and the fold's sense there. ${bad.slice(0, 5).map((c) => c.reading).join(' ')}${bad.length > 5 ? ` And ${bad.length - 5} more.` : ''}`,
+        ...(ids.length > 0 && { ids }),
+      });
+    }
+  }
+  return { surfaces: surfaces.length, vertices, coherence, search, predictions, closures, notes };
 }
 
 /**
@@ -231,6 +271,8 @@ function checkMapPattern(input: DomainCheckInput, axis: Line, cone95: number | n
  * @example search.angleToStart > MAP_AXIS_FLAG_ANGLE
  */
 export const MAP_AXIS_FLAG_ANGLE = 5;
+
+const fmtLine = (l: Line): string => `${String(Math.round(l.trend) % 360).padStart(3, '0')}/${String(Math.round(l.plunge)).padStart(2, '0')}`;
 
 /** East-north-up triples in a grid frame to a frame whose y axis is true north (rotation about the vertical). */
 function rotationToTrue(convergence: number): (xyz: Float64Array) => Float64Array {

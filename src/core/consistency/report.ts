@@ -47,6 +47,10 @@ export const CONSISTENCY_METHODS: readonly { readonly topic: string; readonly te
     text: 'At each trace vertex the layer should contain both the axis and the 3D tangent of the trace (from the heights), so its attitude is the plane through the two; measured planes within 150 m are compared with it.',
   },
   {
+    topic: 'Fold closures',
+    text: 'Closures are the turning points of each contact trace along the axis trend (a zig-zag filter: the trace must fall back 50 m on both sides). On gently sloping ground antiform closures point down the plunge and synform closures up it (common practice); read down the axis with the trace heights (v = s sin p + z cos p), each closure is an antiform or a synform, or a topographic turn where the trace runs along one limb. Hinge readings that say antiform or synform within 250 m, else the limb dips of the bedding there, give the fold\u2019s sense; closures whose sense disagrees are flagged. Where the ground falls toward the plunge more steeply than the axis, the map rule reverses and is allowed for. Overturned limbs would mislead the limb dips.',
+  },
+  {
     topic: 'Local axis field',
     text: 'The pi axis of the k nearest planes (kd-tree search, Friedman, Bentley & Finkel 1977) at each node of a grid, with a first-order 95% cone from the window\u2019s own moments; suggested domains by seeded region growing (Adams & Bischof 1994) on the axes, with a boundary where neighbouring regions meet.',
   },

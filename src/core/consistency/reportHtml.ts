@@ -1,6 +1,7 @@
 import { greatCirclePath } from '../geometry';
 import { projectLine, projectVector } from '../netProjection';
 import type { Line, Plane } from '../types';
+import type { ClosureCheck } from './closures';
 import type { DomainCheck } from './domainCheck';
 import type { ConsistencyReport, FieldReport } from './report';
 
@@ -84,7 +85,7 @@ export function consistencyReportHtml(report: ConsistencyReport): string {
 
 const STYLE = [
   `body{font:13px/1.45 system-ui,sans-serif;color:${INK};margin:24px;max-width:1000px}`,
-  'h1{font-size:20px;margin:0 0 4px}h2{font-size:16px;margin:22px 0 6px;border-bottom:1px solid #ccd}h3{font-size:14px;margin:14px 0 4px}',
+  'h1{font-size:20px;margin:0 0 4px}h2{font-size:16px;margin:22px 0 6px;border-bottom:1px solid #ccd}h3{font-size:14px;margin:14px 0 4px}h4{font-size:13px;margin:10px 0 4px}',
   `.meta{color:${MUTED};margin:0 0 8px}.caution{background:#fff6e0;border-left:4px solid #c77c02;padding:6px 10px}`,
   'table{border-collapse:collapse;margin:6px 0}th,td{border:1px solid #ccd;padding:2px 6px;text-align:left;vertical-align:top}td.num{text-align:right;font-variant-numeric:tabular-nums}',
   `.flags li.warning{color:${FLAG}}.flags li.note{color:${MUTED}}tr.flagged td{color:${FLAG}}`,
@@ -171,10 +172,28 @@ function domainSection(d: DomainCheck): string {
     if (mp.coherence) out.push(`<p>${esc(mp.coherence.reading)} (radius ${mp.coherence.radius.toFixed(0)} m, contrast ${num(mp.coherence.contrast)}).</p>`);
     if (mp.search) out.push(`<p>${esc(mp.search.reading)}</p>`);
     if (mp.predictions) out.push(`<p>${esc(mp.predictions.reading)}</p>`);
+    if (mp.closures) out.push(closuresTable(mp.closures));
     for (const n of mp.notes) out.push(`<p>${esc(n)}</p>`);
   }
   if (d.warnings.length > 0) out.push('<ul>', ...d.warnings.map((w) => `<li>${esc(w.message)}</li>`), '</ul>');
   out.push('</section>');
+  return out.join('\n');
+}
+
+/** Fold closures on the map: the reading, and each closure with a known sense (disagreeing ones first). */
+function closuresTable(c: ClosureCheck): string {
+  const judged = c.closures.filter((k) => k.agrees !== null).sort((p, q) => Number(p.agrees) - Number(q.agrees));
+  const out = ['<h4>Fold closures on the map</h4>', `<p>${esc(c.reading)}</p>`];
+  if (judged.length > 0) {
+    out.push(
+      '<table><thead><tr><th>Surface</th><th>Apex (frame m E, N)</th><th>Points</th><th>Read down the axis</th><th>Sense from</th><th>Agrees</th></tr></thead><tbody>',
+      ...judged.map(
+        (k) =>
+          `<tr${k.agrees ? '' : ' class="flagged"'}><td>${esc(k.surface ?? '—')}</td><td class="num">${k.position[0].toFixed(0)}, ${k.position[1].toFixed(0)}</td><td>${esc(k.points)}${k.ruleHolds === false ? ' (ground reverses the rule)' : ''}</td><td>${esc(k.traceSense ?? '—')}</td><td>${esc(k.senseFrom === 'hinges' ? `hinges ${k.hinges.ids.join(', ')}` : `limb dips (${k.limbs.antiform} antiform, ${k.limbs.synform} synform)`)}: ${esc(k.sense ?? '—')}</td><td>${yesNo(k.agrees)}</td></tr>`,
+      ),
+      '</tbody></table>',
+    );
+  }
   return out.join('\n');
 }
 

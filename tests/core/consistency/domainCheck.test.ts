@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { checkDomain, type DomainPlane } from '../../../src/core/consistency/domainCheck';
 import { analyzeFold } from '../../../src/core/foldAnalysis';
 import { angleBetweenLines } from '../../../src/core/geometry';
-import { comb3, contactTraces, foldStations, ned, planeOfNormal, profileBasis, unit3, type SynthStation } from './synthetic';
+import { comb3, contactTraces, foldStations, levelGroundClosures, ned, planeOfNormal, profileBasis, surfaceBedding, unit3, type SynthStation } from './synthetic';
 import { mulberry32 } from '../../helpers/prng';
 
 const AXIS = { trend: 60, plunge: 20 };
@@ -88,6 +88,38 @@ describe('checkDomain', () => {
     expect(check.flags.map((f) => f.code)).toEqual(['not-cylindrical']);
     expect(check.girdle.cylindricity!.misfit).toBeGreaterThan(15);
     expect(check.mapPattern).toBeNull();
+  });
+
+  it('checkDomain(level-ground contact, bedding of its fold, hinges that say antiform or synform) flags only the closure whose hinge was planted with the wrong sense, in any grid frame', () => {
+    // Closures on level ground: antiforms point down the plunge (common practice; analytic positions in synthetic.ts).
+    const spec = { axis: AXIS, amplitude: 150, wavelength: 1000 };
+    const level = 650;
+    const closures = levelGroundClosures({ ...spec, level, z0: 800, box: BOX });
+    const wrong = closures.findIndex((c) => Math.abs(c.x) < 1500 && Math.abs(c.y) < 1000);
+    const lines = closures.map((c, i) => ({ ...AXIS, x: c.x, y: c.y, id: `H${i + 1}`, sense: i === wrong ? (c.sense === 'antiform' ? ('synform' as const) : ('antiform' as const)) : c.sense }));
+    const planes = surfaceBedding({ ...spec, box: BOX, count: 300, seed: 9 });
+    const pieces = contactTraces({ ...spec, level, box: BOX, cell: 20, terrain: () => 800 });
+    const check = checkDomain({ id: 'a', name: 'A', planes, lines, surfaces: [{ name: 'contact 650', pieces }] }, { bootstrap: 0, searchAxis: false });
+    const flag = check.flags.find((f) => f.code === 'closures-disagree');
+    expect(flag?.ids).toEqual([`H${wrong + 1}`]);
+    expect(check.mapPattern!.closures!.disagreeing).toBe(1);
+    expect(check.mapPattern!.closures!.judged).toBeGreaterThan(3);
+    // The same positions on a grid turned by 2.5° (true = grid + γ, io/localFrame.ts) give the same judgement.
+    const g = (2.5 * Math.PI) / 180;
+    const turn = (x: number, y: number): [number, number] => [x * Math.cos(g) - y * Math.sin(g), x * Math.sin(g) + y * Math.cos(g)];
+    const grid = checkDomain(
+      {
+        id: 'a',
+        name: 'A',
+        planes: planes.map((p) => ({ ...p, ...Object.fromEntries(['x', 'y'].map((k, i) => [k, turn(p.x, p.y)[i]])) })),
+        lines: lines.map((l) => ({ ...l, ...Object.fromEntries(['x', 'y'].map((k, i) => [k, turn(l.x, l.y)[i]])) })),
+        surfaces: [{ name: 'contact 650', pieces: pieces.map((xyz) => xyz.map((v, i) => (i % 3 === 2 ? v : i % 3 === 0 ? turn(v, xyz[i + 1])[0] : turn(xyz[i - 1], v)[1]))) }],
+        convergence: 2.5,
+      },
+      { bootstrap: 0, searchAxis: false },
+    );
+    expect(grid.flags.find((f) => f.code === 'closures-disagree')?.ids).toEqual([`H${wrong + 1}`]);
+    expect(grid.mapPattern!.closures!.judged).toBe(check.mapPattern!.closures!.judged);
   });
 
   it('checkDomain says why when there is no axis, and names a bad convergence', () => {

@@ -4,6 +4,7 @@ import { partitionAxisField } from '../../../src/core/consistency/domainBoundari
 import { localAxisField } from '../../../src/core/consistency/localAxisField';
 import { profileCoherence, searchMapAxis, traceScatter } from '../../../src/core/consistency/mapPatternAxis';
 import { compareWithMeasured, predictAttitudes } from '../../../src/core/consistency/predictedAttitudes';
+import { checkClosures } from '../../../src/core/consistency/closures';
 import { foldInputFromStations } from '../../../src/core/foldInput';
 import { angleBetweenLines } from '../../../src/core/geometry';
 import { fitGirdleToPlanes } from '../../../src/core/girdle';
@@ -136,6 +137,29 @@ describe('consistency checks on the Korvane sample map', () => {
         expect(s.weakestContrast!).toBeLessThan(2);
       }
       expect(s.constraint).not.toBe('none');
+    }
+  });
+
+  it('checkClosures(Korvane contacts, planted axis, hinge senses and bedding of the domain) finds every judged closure pointing the right way, and every one wrong for the axis reversed', () => {
+    // The planted folds are upright and the ground gentle (truth.json), so antiform closures point
+    // down the plunge (common practice); the hinge readings carry the planted sense.
+    for (const d of truth.domains) {
+      const pieces = contacts.flatMap((f, i) => (f.properties.domain === d.id ? f.parts.map((part, k) => ({ surface: String(f.properties.name), xyz: lonLatToLocal(frame, part.lonLat, contactHeights.heights[i][k]) })) : []));
+      const inside = stations.filter((s) => inDomain(d, s));
+      const place = (s: Station) => {
+        const [x, y] = local(s.lon!, s.lat!);
+        return { x, y, id: s.id };
+      };
+      // Readings are referred to true north; the frame to grid north (true = grid + convergence).
+      const planes = inside.filter((s) => s.kind === 'bedding').map((s) => ({ ...place(s), dipDirection: s.plane!.dipDirection - frame.convergence, dip: s.plane!.dip }));
+      const lines = inside.filter((s) => s.line).map((s) => ({ ...place(s), trend: s.line!.trend - frame.convergence, plunge: s.line!.plunge, ...(s.line!.sense && { sense: s.line!.sense }) }));
+      const right = checkClosures(pieces, d.axisGrid, { planes, lines });
+      expect(right.judged).toBeGreaterThan(6);
+      expect(right.disagreeing).toBe(0);
+      expect(right.closures.some((c) => c.senseFrom === 'hinges')).toBe(true);
+      const reversed = checkClosures(pieces, { trend: (d.axisGrid.trend + 180) % 360, plunge: d.axisGrid.plunge }, { planes, lines });
+      expect(reversed.judged).toBeGreaterThan(6);
+      expect(reversed.disagreeing).toBe(reversed.judged);
     }
   });
 

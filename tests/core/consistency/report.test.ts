@@ -5,7 +5,7 @@ import { localAxisField } from '../../../src/core/consistency/localAxisField';
 import { buildConsistencyReport, CONSISTENCY_CAUTION } from '../../../src/core/consistency/report';
 import { consistencyReportHtml, escapeHtml } from '../../../src/core/consistency/reportHtml';
 import { angleBetweenLines } from '../../../src/core/geometry';
-import { foldStations, positionsAndPoles, type SynthStation } from './synthetic';
+import { contactTraces, foldStations, levelGroundClosures, positionsAndPoles, surfaceBedding, type SynthStation } from './synthetic';
 
 const WEST = { trend: 70, plunge: 15 };
 const EAST = { trend: 90, plunge: 18 };
@@ -77,6 +77,30 @@ describe('consistencyReportHtml', () => {
     expect(html).toContain(CONSISTENCY_CAUTION);
     // One net per domain and one map of the field.
     expect(html.match(/<svg /g)!.length).toBe(3);
+  });
+
+  it('consistencyReportHtml(report with fold closures) lists the closure that disagrees, with the surface name escaped', () => {
+    // Level-ground contact and hinges of synthetic.ts; the first hinge is planted with the wrong sense.
+    const spec = { axis: WEST, amplitude: 150, wavelength: 1000 };
+    const box = [-2000, -1500, 2000, 1500] as const;
+    const closures = levelGroundClosures({ ...spec, level: 650, z0: 800, box });
+    const lines = closures.map((c, i) => ({ ...WEST, x: c.x, y: c.y, id: `H${i + 1}`, sense: i === 0 ? (c.sense === 'antiform' ? ('synform' as const) : ('antiform' as const)) : c.sense }));
+    const check = checkDomain(
+      {
+        id: 'c',
+        name: 'Closures',
+        planes: surfaceBedding({ ...spec, box, count: 200, seed: 4 }),
+        lines,
+        surfaces: [{ name: `contact ${HOSTILE}`, pieces: contactTraces({ ...spec, level: 650, box, cell: 20, terrain: () => 800 }) }],
+      },
+      { bootstrap: 0, searchAxis: false },
+    );
+    const html = consistencyReportHtml(buildConsistencyReport({ generated: '2025-06-01', domains: [check] }));
+    expect(check.mapPattern!.closures!.disagreeing).toBe(1);
+    expect(html).toContain('Fold closures on the map');
+    expect(html).toContain(escapeHtml(`contact ${HOSTILE}`));
+    expect(html).not.toContain(HOSTILE);
+    expect(html.match(/<tr class="flagged"><td>contact /g)!.length).toBe(1);
   });
 
   // Reference rows: the characters HTML requires escaped in text and quoted attributes (HTML

@@ -269,3 +269,64 @@ export function contactTraces(options: {
   }
   return pieces;
 }
+
+/**
+ * Bedding readings of the same family as {@link contactTraces}'s surfaces (F = v - A sin(2π u/λ)),
+ * at random places in the box: the normal is grad F = up - A(2π/λ) cos(2π u/λ)·right (derived),
+ * rotated by `sigma` degrees of noise (see {@link jitter}).
+ */
+export function surfaceBedding(options: {
+  readonly axis: { trend: number; plunge: number };
+  readonly amplitude: number;
+  readonly wavelength: number;
+  readonly box: readonly [number, number, number, number];
+  readonly count: number;
+  readonly seed: number;
+  readonly sigma?: number;
+}): { x: number; y: number; dipDirection: number; dip: number; id: string }[] {
+  const { axis, amplitude, wavelength, box, count } = options;
+  const rnd = mulberry32(options.seed);
+  const t = (axis.trend * Math.PI) / 180;
+  const p = (axis.plunge * Math.PI) / 180;
+  // Profile right and up in north-east-down.
+  const right: V3 = [-Math.sin(t), Math.cos(t), 0];
+  const up: V3 = [Math.sin(p) * Math.cos(t), Math.sin(p) * Math.sin(t), -Math.cos(p)];
+  return Array.from({ length: count }, (_, i) => {
+    const x = box[0] + (box[2] - box[0]) * rnd();
+    const y = box[1] + (box[3] - box[1]) * rnd();
+    const u = x * Math.cos(t) - y * Math.sin(t);
+    const g = ((amplitude * 2 * Math.PI) / wavelength) * Math.cos((2 * Math.PI * u) / wavelength);
+    const n = jitter(unit3(comb3(up, 1, right, -g)), options.sigma ?? 2, rnd);
+    return { x, y, ...planeOfNormal(n), id: `B${i + 1}` };
+  });
+}
+
+/**
+ * The closures of a {@link contactTraces} contact at `level` on level ground z0, with their apex in
+ * the box: on level ground v = s sin p + z0 cos p, so the trace is s(u) = (A sin(2π u/λ) + level -
+ * z0 cos p)/sin p (derived), turning at u = λ/4 + kλ/2: crests (antiforms, pointing down the
+ * plunge) for even k, troughs (synforms, pointing up it) for odd k.
+ */
+export function levelGroundClosures(options: {
+  readonly axis: { trend: number; plunge: number };
+  readonly amplitude: number;
+  readonly wavelength: number;
+  readonly level: number;
+  readonly z0: number;
+  readonly box: readonly [number, number, number, number];
+}): { u: number; s: number; x: number; y: number; sense: 'antiform' | 'synform' }[] {
+  const { axis, amplitude, wavelength, level, z0, box } = options;
+  const t = (axis.trend * Math.PI) / 180;
+  const p = (axis.plunge * Math.PI) / 180;
+  const out: { u: number; s: number; x: number; y: number; sense: 'antiform' | 'synform' }[] = [];
+  const reach = Math.ceil((2 * Math.hypot(box[2] - box[0], box[3] - box[1])) / wavelength) + 2;
+  for (let k = -reach; k <= reach; k++) {
+    const u = wavelength / 4 + (k * wavelength) / 2;
+    const crest = k % 2 === 0;
+    const s = ((crest ? amplitude : -amplitude) + level - z0 * Math.cos(p)) / Math.sin(p);
+    const x = u * Math.cos(t) + s * Math.sin(t);
+    const y = -u * Math.sin(t) + s * Math.cos(t);
+    if (x > box[0] && x < box[2] && y > box[1] && y < box[3]) out.push({ u, s, x, y, sense: crest ? 'antiform' : 'synform' });
+  }
+  return out;
+}
