@@ -10,7 +10,8 @@ import { ParseClient } from '../worker/parseClient';
 import { ImportFileError, type ReadProgress, type ScanResult } from './import/parseJob';
 import { FIELD_GROUPS, FIELD_LABELS, LINE_NOTATION_LABELS, LOCATION_FIELDS, PLANE_NOTATION_LABELS } from './import/fields';
 import { checkMapping, type MappingMessage } from './import/mappingCheck';
-import { crsChoiceGroups, describeCrsText } from './import/importOptions';
+import { crsChoiceGroups, crsLookupRunning, describeCrsText, prepareCrs } from './import/importOptions';
+import { crsFromText, pendingEpsgCode, type Crs } from '../io/crs';
 import { problemsToCsv, reportOf, type ImportReport } from './import/importReport';
 import { mappingMemory, type MappingMemory, type SavedMapping } from './import/savedMappings';
 import { defineOnce } from './define';
@@ -227,6 +228,18 @@ export class FoldlensImport extends LitElement {
     this.cancelRunning();
   }
 
+  protected override willUpdate(changed: Map<PropertyKey, unknown>): void {
+    // An EPSG code outside the built-in list is looked up in the EPSG table (loaded on first use);
+    // the form shows "Looking up…" meanwhile, then the name, or why it failed.
+    const crs = this.options.crs;
+    if (changed.has('options') && crs !== undefined && pendingEpsgCode(crs) !== undefined && !crsLookupRunning(crs)) {
+      prepareCrs(crs).then(
+        () => this.requestUpdate(),
+        () => this.requestUpdate(),
+      );
+    }
+  }
+
   private get parser(): ParseClient {
     this.client ??= new ParseClient();
     return this.client;
@@ -325,7 +338,7 @@ export class FoldlensImport extends LitElement {
     const options = this.options;
     let parsed;
     try {
-      parsed = await this.parser.read(this.file, { format: scan.format, mapping, options }, (p) => {
+      parsed = await this.parser.read(this.file, { format: scan.format, mapping, options, ...lookedUp(options.crs) }, (p) => {
         if (run === this.run) this.progress = p;
       });
     } catch (e) {
@@ -634,7 +647,7 @@ export class FoldlensImport extends LitElement {
                   <input type="text" data-option="crs-text" aria-label="EPSG code or proj4 definition" placeholder="EPSG:32633 or +proj=utm +zone=33 +datum=WGS84" .value=${crs} aria-invalid=${String(invalid.has('crs'))} @change=${(e: Event) => this.setOption('crs', (e.target as HTMLInputElement).value.trim() || undefined)} />
                 </label>`
               : nothing}
-            ${described ? html`<div class="crs-note wide ${described.ok ? 'hint' : 'bad'}">${described.ok ? `Using ${described.text}` : described.text}</div>` : nothing}
+            ${described ? html`<div class="crs-note wide ${described.ok || described.pending ? 'hint' : 'bad'}" role="status">${described.ok ? `Using ${described.text}` : described.text}</div>` : nothing}
           </div>`
         : nothing}
     </fieldset>`;
@@ -689,6 +702,17 @@ export class FoldlensImport extends LitElement {
         </tbody>
       </table>
     </div>`;
+  }
+}
+
+/** The CRS of an EPSG code known on this page, for the worker (so it need not load the EPSG table again). */
+function lookedUp(text: string | undefined): { crs?: Crs } {
+  if (text === undefined || pendingEpsgCode(text) !== undefined) return {};
+  try {
+    const crs = crsFromText(text);
+    return crs.code.startsWith('EPSG:') ? { crs } : {};
+  } catch {
+    return {}; // the reader will say what is wrong with it
   }
 }
 

@@ -3,7 +3,8 @@ import { describeProblem, isUsable, type Station } from '../core/station';
 import type { PlaneFormat } from '../core/notation';
 import { withStationEdit, type CellEdit, type ProjectDataset } from '../io/projectFile';
 import { KIND_LABELS } from '../map/symbolCatalog';
-import { ImportOptionsError } from './import/importOptions';
+import { ImportOptionsError, prepareCrs } from './import/importOptions';
+import { pendingEpsgCode } from '../io/crs';
 import { problemsToCsv } from './import/importReport';
 import { rereadRow } from './table/fixRow';
 import { datasetToCsv, datasetToGeoJson } from './table/exportTable';
@@ -316,6 +317,20 @@ export class FoldlensTable extends LitElement {
     const old = dataset.stations[editing.index];
     if ((old.source[editing.column] ?? '') === value) {
       this.focusGrid();
+      return;
+    }
+    const crs = dataset.options.crs;
+    if (crs !== undefined && pendingEpsgCode(crs) !== undefined) {
+      // A CRS from the EPSG table not looked up yet on this page (after a reload): look it up, then read the row.
+      this.message = `Looking up ${crs} in the EPSG index…`;
+      prepareCrs(crs).then(
+        () => {
+          if (pendingEpsgCode(crs) !== undefined || this.data !== dataset) return;
+          this.editing = editing;
+          this.commitEdit(value);
+        },
+        (e: unknown) => (this.message = `The row could not be read again: ${e instanceof Error ? e.message : String(e)}`),
+      );
       return;
     }
     let result;

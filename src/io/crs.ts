@@ -6,9 +6,11 @@ import { normalizeAzimuth, toDegrees } from '../core/math';
  * (and back), and the grid convergence that relates grid north to true north.
  *
  * A small table of definitions is built in (WGS84; UTM on WGS84, ETRS89 and NAD83, generated
- * from the zone number; a few national grids). Any other EPSG code needs a loader (see
- * `epsgNode.ts` for Node, which reads one small file from the `epsg-index` package), so the
- * 8 MB index is never bundled into a browser build.
+ * from the zone number; a few national grids). Any other EPSG code needs a loader: `epsgNode.ts`
+ * for Node reads one small file from the `epsg-index` package; `epsgTable.ts`, for the browser,
+ * loads a compact table of the whole index as a chunk of its own on first use, so the 8 MB
+ * index is never bundled. A code once resolved is remembered in this JavaScript context, so the
+ * synchronous {@link crsFromText} knows it from then on.
  *
  * Axis order: x is easting (or longitude), y is northing (or latitude), whatever the EPSG
  * register says about the axis order of the CRS (common practice in GIS files).
@@ -62,6 +64,16 @@ export class CrsError extends Error {
 }
 
 const WGS84 = '+proj=longlat +datum=WGS84 +no_defs';
+
+/** EPSG codes resolved through a loader in this JavaScript context (a page, a worker, a process). */
+const resolved = new Map<number, Crs>();
+
+/** Kinds of EPSG record whose coordinates are not map x/y (heights, Earth-centred, local engineering). */
+const NOT_FOR_MAPS: Readonly<Record<string, string>> = {
+  'CRS-VERTCRS': 'a vertical (height) system',
+  'CRS-GCENCRS': 'an Earth-centred (geocentric) system',
+  'CRS-ENGCRS': 'a local engineering system',
+};
 
 /** Source of the named definitions: the `epsg-index` 2.0.0 package (EPSG register), except where noted. */
 const NAMED: readonly { code: number; names: readonly string[]; name: string; proj4: string; bbox: readonly number[]; notes?: string[] }[] = [
@@ -197,20 +209,23 @@ export function builtInCrs(code: number): Crs | undefined {
 /**
  * Reads a CRS given as text without touching any loader: "EPSG:32633", "32633",
  * "urn:ogc:def:crs:EPSG::27700", "UTM 33N", "UTM33S", a built-in name such as "BNG",
- * or a proj4 definition starting with "+proj=". Throws {@link CrsError} for anything else.
+ * or a proj4 definition starting with "+proj=", or an EPSG code already resolved by
+ * {@link resolveCrs} here. Throws {@link CrsError} for anything else.
  * @example crsFromText('utm 33n').code // 'EPSG:32633'
  */
 export function crsFromText(text: string): Crs {
   const found = lookupText(text);
   if (found.crs) return found.crs;
   if (found.code !== undefined) {
-    throw new CrsError(`EPSG:${found.code} is not in the built-in table; it needs the EPSG index (available in the command line)`);
+    throw new CrsError(`EPSG:${found.code} is not in the built-in table and has not been looked up in the EPSG index yet (resolveCrs)`);
   }
   throw new CrsError(unknownCrsMessage(text));
 }
 
 /**
- * Like {@link crsFromText}, but asks `loader` for EPSG codes that are not built in.
+ * Like {@link crsFromText}, but asks `loader` for EPSG codes that are not built in, and
+ * remembers what it found for {@link crsFromText}. Heights, Earth-centred and engineering
+ * systems are refused: x and y must be map coordinates.
  * Mandatory datum-shift grid files in a loaded definition cannot be used (none are shipped):
  * they are made optional and the Crs carries a note saying the shift is left out.
  * @example await resolveCrs('EPSG:2056') // built in, the loader is not asked
@@ -226,10 +241,41 @@ export async function resolveCrs(text: string, loader?: EpsgLoader): Promise<Crs
   } catch (e) {
     throw new CrsError(`could not read the EPSG index for EPSG:${found.code}: ${(e as Error).message}`);
   }
-  if (!record || typeof record.proj4 !== 'string' || record.proj4 === '') {
-    throw new CrsError(`EPSG:${found.code} is not a coordinate reference system the EPSG index knows`);
+  if (!record) throw new CrsError(`EPSG:${found.code} is not a coordinate reference system the EPSG index knows`);
+  const notForMaps = NOT_FOR_MAPS[record.kind];
+  if (notForMaps) throw new CrsError(`EPSG:${found.code} (${record.name}) is ${notForMaps}; x and y need a projected or geographic coordinate reference system`);
+  if (typeof record.proj4 !== 'string' || record.proj4 === '') {
+    throw new CrsError(`EPSG:${found.code} (${record.name}) has no proj4 definition in the EPSG index; give its proj4 definition (+proj=...) instead`);
   }
-  return fromRecord(found.code, record);
+  const crs = fromRecord(found.code, record);
+  resolved.set(found.code, crs);
+  return crs;
+}
+
+/**
+ * Makes an EPSG CRS resolved elsewhere (on the page, for a worker) known here, as if
+ * {@link resolveCrs} had found it, so the same table need not be loaded twice. Throws
+ * {@link CrsError} for a CRS whose code is not `EPSG:<n>` or whose definition proj4 cannot use.
+ * @example rememberCrs(await resolveCrs('EPSG:2263', loadEpsgFromTable)); // in a worker: crsFromText('EPSG:2263') now works
+ */
+export function rememberCrs(crs: Crs): void {
+  const m = /^EPSG:(\d+)$/.exec(crs.code);
+  if (!m) throw new CrsError(`${crs.code} is not an EPSG code; only EPSG codes are remembered`);
+  converter(crs);
+  resolved.set(Number(m[1]), crs);
+}
+
+/**
+ * The EPSG code that `text` names when that code is neither built in nor resolved here yet
+ * (so {@link resolveCrs} must ask a loader before {@link crsFromText} can use it); otherwise
+ * undefined (also for text that is no EPSG code at all).
+ * @example pendingEpsgCode('EPSG:2263') // 2263, until resolveCrs('EPSG:2263', loader) has run
+ */
+export function pendingEpsgCode(text: string): number | undefined {
+  const t = text.trim();
+  if (t.startsWith('+proj=')) return undefined;
+  const found = lookupText(t);
+  return found.crs ? undefined : found.code;
 }
 
 /**
@@ -238,7 +284,7 @@ export async function resolveCrs(text: string, loader?: EpsgLoader): Promise<Crs
  * @example toLonLat(500000, 0, builtInCrs(32633)!) // { lon: 15, lat: 0 }
  */
 export function toLonLat(x: number, y: number, crs: Crs): { lon: number; lat: number } {
-  const [lon, lat] = converter(crs).inverse([x, y]);
+  const [lon, lat] = projected(() => converter(crs).inverse([x, y]));
   if (!Number.isFinite(lon) || !Number.isFinite(lat)) throw new CrsError(`(${x}, ${y}) cannot be converted from ${crs.code} to longitude and latitude`);
   return { lon, lat };
 }
@@ -249,7 +295,7 @@ export function toLonLat(x: number, y: number, crs: Crs): { lon: number; lat: nu
  * @example fromLonLat(15, 0, builtInCrs(32633)!) // { x: 500000, y: 0 }
  */
 export function fromLonLat(lon: number, lat: number, crs: Crs): { x: number; y: number } {
-  const [x, y] = converter(crs).forward([lon, lat]);
+  const [x, y] = projected(() => converter(crs).forward([lon, lat]));
   if (!Number.isFinite(x) || !Number.isFinite(y)) throw new CrsError(`(${lon}, ${lat}) cannot be converted to ${crs.code}`);
   return { x, y };
 }
@@ -341,6 +387,20 @@ export function describeArea(a: LonLatBox): string {
 
 const converters = new Map<string, proj4.Converter>();
 
+/**
+ * A point through proj4, which throws a TypeError for coordinates that are not finite numbers
+ * (and may throw for others it cannot handle): here that is a point that cannot be converted,
+ * given back as NaN for the caller's CrsError naming the point.
+ */
+function projected(convert: () => number[]): number[] {
+  try {
+    return convert();
+  } catch (e) {
+    if (e instanceof CrsError) throw e;
+    return [Number.NaN, Number.NaN];
+  }
+}
+
 function converter(crs: Crs): proj4.Converter {
   let c = converters.get(crs.proj4);
   if (!c) {
@@ -379,6 +439,7 @@ function fromRecord(code: number, r: EpsgRecord): Crs {
       return `+nadgrids=${[...names.filter((g) => g !== 'null').map((g) => `@${g}`), '@null'].join(',')}`;
     })
     .replace(/\s*\+type=crs/, '');
+  notes.push(...methodNotes(def));
   const crs: Crs = {
     code: `EPSG:${code}`,
     name: r.name,
@@ -391,6 +452,19 @@ function fromRecord(code: number, r: EpsgRecord): Crs {
   return crs;
 }
 
+/**
+ * What proj4 computes differently from the EPSG method of a definition. proj4js works the
+ * Equidistant Cylindrical projection on a sphere of the semi-major axis even for an ellipsoid:
+ * EPSG Guidance Note 7-2's example for EPSG:4087 (55°N, 10°E) has N 6097230.31 m where proj4js
+ * gives 6122571.99 m (its own value, from the tests).
+ */
+function methodNotes(def: string): string[] {
+  if (/\+proj=eqc\b/.test(def) && !/\+R=|\+ellps=sphere\b/.test(def)) {
+    return ['the equidistant cylindrical projection is computed on a sphere, so northings differ from the ellipsoidal EPSG method (by 25 km at 55°N)'];
+  }
+  return [];
+}
+
 function boxFromBbox(b: readonly number[]): LonLatBox {
   // epsg-index writes [north, west, south, east].
   return { north: b[0], west: b[1], south: b[2], east: b[3] };
@@ -399,7 +473,7 @@ function boxFromBbox(b: readonly number[]): LonLatBox {
 function lookupText(text: string): { crs?: Crs; code?: number } {
   const t = text.trim();
   if (t.startsWith('+proj=')) {
-    const crs: Crs = { code: 'PROJ4', name: t, proj4: t, geographic: t.includes('+proj=longlat'), notes: [] };
+    const crs: Crs = { code: 'PROJ4', name: t, proj4: t, geographic: t.includes('+proj=longlat'), notes: methodNotes(t) };
     converter(crs);
     return { crs };
   }
@@ -407,7 +481,7 @@ function lookupText(text: string): { crs?: Crs; code?: number } {
   const epsg = /^(?:epsg\s*:{1,2}\s*|urn:ogc:def:crs:epsg:[\d.]*:)?(\d{4,6})$/.exec(lower);
   if (epsg) {
     const code = Number(epsg[1]);
-    return { crs: builtInCrs(code), code };
+    return { crs: builtInCrs(code) ?? resolved.get(code), code };
   }
   const utm = /^utm\s*(?:zone\s*)?(\d{1,2})\s*([ns])$/.exec(lower);
   if (utm) {

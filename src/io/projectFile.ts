@@ -94,12 +94,36 @@ export interface ProjectDataset {
   readonly edits: readonly CellEdit[];
 }
 
-/** A named set of stations of one dataset, by index into its `stations`. */
+/** The drawing tools a selection outline can come from. */
+export const SELECTION_TOOLS = ['lasso', 'polygon', 'rectangle'] as const;
+
+/** The outline a selection was drawn with. */
+export interface SelectionShape {
+  /** How it was drawn; absent when it came from elsewhere (a domain outline shown as the selection). */
+  readonly tool?: (typeof SELECTION_TOOLS)[number];
+  /** [longitude, latitude] vertices, at least three, closed or not. */
+  readonly ring: readonly (readonly [number, number])[];
+}
+
+/**
+ * A named selection: the stations it held (by index into a dataset's `stations`, or by station
+ * id) and, when it was drawn as one shape, its outline. At least one of `indices`, `stationIds`
+ * and `shape` is given. Without `dataset` it belongs to the stations shown when the project has no
+ * dataset of its own (the demo's built-in sample), which it names by `stationIds`.
+ */
 export interface ProjectSelection {
   readonly id: string;
   readonly name: string;
-  readonly dataset: string;
-  readonly indices: readonly number[];
+  /** Id of the dataset whose stations are selected; needed with `indices`. */
+  readonly dataset?: string;
+  /** Positions in that dataset's `stations`, 0-based. */
+  readonly indices?: readonly number[];
+  /** Station ids (Station.id). */
+  readonly stationIds?: readonly string[];
+  /** The outline the selection was drawn with. */
+  readonly shape?: SelectionShape;
+  /** When it was saved, ISO 8601. */
+  readonly savedAt?: string;
 }
 
 /** A map domain: a closed or open ring of [longitude, latitude] and, for now, any analysis as opaque JSON. */
@@ -260,10 +284,10 @@ export function checkProject(json: unknown): FoldlensProject {
     if (ids.has(id)) fail(`datasets[${i}].id`, `the id "${id}" is used by two datasets`);
     ids.add(id);
   });
-  const sizes = new Map(datasets.map((d) => [(d as { id: string }).id, (d as { stations: unknown[] }).stations.length]));
+  const byId = new Map(datasets.map((d) => [(d as { id: string }).id, (d as { stations: readonly Station[] }).stations]));
   const selectionIds = new Set<string>();
   array(p.selections, 'selections', 'a list of selections').forEach((s, i) => {
-    const id = checkSelection(s, `selections[${i}]`, sizes);
+    const id = checkSelection(s, `selections[${i}]`, byId);
     if (selectionIds.has(id)) fail(`selections[${i}].id`, `the id "${id}" is used by two selections`);
     selectionIds.add(id);
   });
@@ -399,19 +423,43 @@ function checkProblem(value: unknown, path: string): RowProblem {
   return o as unknown as RowProblem;
 }
 
-function checkSelection(value: unknown, path: string, sizes: ReadonlyMap<string, number>): string {
+function checkSelection(value: unknown, path: string, datasets: ReadonlyMap<string, readonly Station[]>): string {
   const s = object(value, path, 'a selection');
-  known(s, path, ['id', 'name', 'dataset', 'indices']);
+  known(s, path, ['id', 'name', 'dataset', 'indices', 'stationIds', 'shape', 'savedAt']);
   const id = text(s.id, `${path}.id`, 'an id', true);
   text(s.name, `${path}.name`, 'a name');
-  const dataset = text(s.dataset, `${path}.dataset`, 'the id of a dataset', true);
-  const size = sizes.get(dataset);
-  if (size === undefined) fail(`${path}.dataset`, `no dataset has the id "${dataset}"`);
-  array(s.indices, `${path}.indices`, 'a list of station indices').forEach((n, i) => {
-    if (typeof n !== 'number' || !Number.isInteger(n) || n < 0 || n >= size!) {
-      expected(`${path}.indices[${i}]`, `a station index from 0 to ${size! - 1}`, n);
-    }
-  });
+  let stations: readonly Station[] | undefined;
+  if (s.dataset !== undefined) {
+    const dataset = text(s.dataset, `${path}.dataset`, 'the id of a dataset', true);
+    stations = datasets.get(dataset);
+    if (stations === undefined) fail(`${path}.dataset`, `no dataset has the id "${dataset}"`);
+  }
+  if (s.indices !== undefined) {
+    if (!stations) fail(`${path}.dataset`, 'expected the id of the dataset the indices point into, found nothing');
+    const size = stations.length;
+    array(s.indices, `${path}.indices`, 'a list of station indices').forEach((n, i) => {
+      if (typeof n !== 'number' || !Number.isInteger(n) || n < 0 || n >= size) {
+        expected(`${path}.indices[${i}]`, `a station index from 0 to ${size - 1}`, n);
+      }
+    });
+  }
+  if (s.stationIds !== undefined) {
+    const ids = stations && new Set(stations.map((x) => x.id));
+    array(s.stationIds, `${path}.stationIds`, 'a list of station ids').forEach((v, i) => {
+      const stationId = text(v, `${path}.stationIds[${i}]`, 'a station id', true);
+      if (ids && !ids.has(stationId)) fail(`${path}.stationIds[${i}]`, `no station of dataset "${s.dataset as string}" has the id "${stationId}"`);
+    });
+  }
+  if (s.shape !== undefined) {
+    const shape = object(s.shape, `${path}.shape`, 'a shape {tool, ring}');
+    known(shape, `${path}.shape`, ['tool', 'ring']);
+    if (shape.tool !== undefined) oneOf(shape.tool, `${path}.shape.tool`, SELECTION_TOOLS);
+    checkRing(shape.ring, `${path}.shape.ring`);
+  }
+  if (s.indices === undefined && s.stationIds === undefined && s.shape === undefined) {
+    fail(path, 'expected the stations of the selection (indices or stationIds) or its outline (shape), found none of them');
+  }
+  if (s.savedAt !== undefined && (typeof s.savedAt !== 'string' || Number.isNaN(Date.parse(s.savedAt)))) expected(`${path}.savedAt`, 'a date and time, ISO 8601', s.savedAt);
   return id;
 }
 
@@ -419,15 +467,19 @@ function checkDomain(value: unknown, path: string): string {
   const d = object(value, path, 'a domain');
   const id = text(d.id, `${path}.id`, 'an id', true);
   text(d.name, `${path}.name`, 'a name');
-  const ring = array(d.ring, `${path}.ring`, 'a ring of [longitude, latitude] positions');
-  if (ring.length < 3) fail(`${path}.ring`, `expected at least 3 positions, found ${ring.length}`);
+  checkRing(d.ring, `${path}.ring`);
+  return id;
+}
+
+function checkRing(value: unknown, path: string): void {
+  const ring = array(value, path, 'a ring of [longitude, latitude] positions');
+  if (ring.length < 3) fail(path, `expected at least 3 positions, found ${ring.length}`);
   ring.forEach((pos, i) => {
-    const p = `${path}.ring[${i}]`;
+    const p = `${path}[${i}]`;
     if (!Array.isArray(pos) || pos.length !== 2) expected(p, '[longitude, latitude]', pos);
     finite(pos[0], `${p}[0]`, 'a longitude');
     if (typeof pos[1] !== 'number' || !(Math.abs(pos[1]) <= 90)) expected(`${p}[1]`, 'a latitude from -90 to 90', pos[1]);
   });
-  return id;
 }
 
 function checkLonLat(o: Record<string, unknown>, path: string): void {

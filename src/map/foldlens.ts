@@ -123,11 +123,16 @@ export class Foldlens extends EventTarget {
     this.publish(true);
   }
 
-  /** Selects stations by index (e.g. to restore a saved selection). */
-  selectIndices(indices: Iterable<number>): void {
+  /**
+   * Selects stations by index (e.g. to restore a saved selection), replacing the selection;
+   * `outline` (a lon/lat ring) is drawn and reported as its shape, or none is.
+   */
+  selectIndices(indices: Iterable<number>, outline: ReadonlyArray<readonly [number, number]> | null = null): void {
     const flags = new Uint8Array(this.stations.length);
     for (const i of indices) if (i >= 0 && i < flags.length) flags[i] = 1;
     this.selection.setSelected(flags);
+    this.lastShape = outline ? outline.map((p) => [p[0], p[1]] as const) : null;
+    this.drawer.showOutline(this.lastShape);
     this.publish(true);
   }
 

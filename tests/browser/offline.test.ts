@@ -58,6 +58,14 @@ describe('the demo offline', () => {
       if (document.body.dataset.analysisReady === before) throw new Error('no analysis offline');
     });
     await page.waitForFunction(() => document.querySelector('#offline-status')?.textContent === 'Offline: working from the saved copy', null, { timeout: 10_000 });
+    // The built demo has every panel: a bundler that took the components' imports for
+    // side-effect-free would drop their registration, and the panels would stay empty tags.
+    const undefinedPanels = await page.evaluate(() =>
+      [...new Set([...document.querySelectorAll('*')].map((el) => el.localName).filter((n) => n.startsWith('foldlens-')))].filter((n) => !customElements.get(n)),
+    );
+    expect(undefinedPanels).toEqual([]);
+    const netText = await page.evaluate(() => document.querySelector('foldlens-net')?.shadowRoot?.textContent ?? '');
+    expect(netText).toMatch(/Fold axis/);
     expect(errors).toEqual([]);
     await context.close();
   });

@@ -32,7 +32,7 @@ describe('toReadOptions', () => {
 
   const bad: { name: string; options: Parameters<typeof toReadOptions>[0]; field: string; message: RegExp }[] = [
     { name: 'a CRS it does not know', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'true', crs: 'Gauss 7' }, field: 'crs', message: /"Gauss 7" is not a CRS Foldlens can read/ },
-    { name: 'an EPSG code not built in', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'true', crs: 'EPSG:2263' }, field: 'crs', message: /EPSG:2263 is not in the built-in table; in the browser, give its proj4 definition/ },
+    { name: 'an EPSG code not built in and not looked up', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'true', crs: 'EPSG:2263' }, field: 'crs', message: /EPSG:2263 is not in the built-in table and has not been looked up in the EPSG index yet \(prepareCrs\)/ },
     { name: 'grid north without a projected CRS', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'grid', crs: 'EPSG:4326' }, field: 'north', message: /grid north needs the projected coordinate system/ },
     { name: 'a default date that is not a date', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'magnetic', date: '2025-02-30' }, field: 'date', message: /"2025-02-30" is not a date/ },
     { name: 'a declination beyond 180', options: { planeNotation: 'auto', lineNotation: 'auto', north: 'magnetic', declination: 200 }, field: 'declination', message: /200 is not a declination/ },

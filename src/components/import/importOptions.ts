@@ -1,4 +1,5 @@
-import { builtInCrs, crsFromText, CrsError, type Crs } from '../../io/crs';
+import { builtInCrs, crsFromText, CrsError, pendingEpsgCode, resolveCrs, type Crs, type EpsgLoader } from '../../io/crs';
+import { loadEpsgFromTable } from '../../io/epsgTable';
 import { parseIsoDate } from '../../io/declination';
 import type { StationReadOptions } from '../../io/readStations';
 import type { ImportOptions } from '../../io/projectFile';
@@ -22,9 +23,46 @@ export class ImportOptionsError extends Error {
   }
 }
 
+/** EPSG codes being looked up by {@link prepareCrs}, or whose lookup failed (with why). */
+const lookups = new Map<number, { readonly failed?: string }>();
+
+/**
+ * Looks up an EPSG code that is not built in (crs.ts) in the EPSG table, which is loaded on first
+ * use (io/epsgTable.ts), so that {@link toReadOptions} can use it from then on in this context
+ * (the page, or the parse worker). Any other CRS text needs nothing and resolves at once.
+ * Throws {@link ImportOptionsError} for `crs` when the code cannot be resolved, saying why.
+ * @example await prepareCrs('EPSG:2263'); toReadOptions({ ...options, crs: 'EPSG:2263' }).crs?.name // 'NAD83 / New York Long Island (ftUS)'
+ */
+export async function prepareCrs(text: string | undefined, loader: EpsgLoader = loadEpsgFromTable): Promise<void> {
+  const code = text === undefined ? undefined : pendingEpsgCode(text);
+  if (code === undefined) return;
+  lookups.set(code, {});
+  try {
+    await resolveCrs(text!, loader);
+    lookups.delete(code);
+  } catch (e) {
+    if (!(e instanceof CrsError)) throw e;
+    const message = /is not a coordinate reference system the EPSG index knows/.test(e.message)
+      ? `EPSG:${code} is not in the built-in table or the EPSG index: check the code, or give its proj4 definition (+proj=...)`
+      : e.message;
+    lookups.set(code, { failed: message });
+    throw new ImportOptionsError('crs', message);
+  }
+}
+
+/**
+ * Whether {@link prepareCrs} is still looking up the EPSG code of `text`.
+ * @example crsLookupRunning('EPSG:2263') // true between prepareCrs('EPSG:2263') and its end
+ */
+export function crsLookupRunning(text: string): boolean {
+  const code = pendingEpsgCode(text);
+  return code !== undefined && lookups.has(code) && lookups.get(code)!.failed === undefined;
+}
+
 /**
  * The reader options for stored import options: the CRS text resolved with the built-in table
- * (crs.ts), the default date parsed. Throws {@link ImportOptionsError} naming the option.
+ * (crs.ts) or as looked up by {@link prepareCrs}, the default date parsed. Throws
+ * {@link ImportOptionsError} naming the option.
  * @example toReadOptions({ planeNotation: 'auto', lineNotation: 'auto', north: 'grid', crs: 'EPSG:32633' }).crs?.name
  * // 'WGS 84 / UTM zone 33N'
  */
@@ -35,11 +73,13 @@ export function toReadOptions(options: ImportOptions): StationReadOptions {
       crs = crsFromText(options.crs);
     } catch (e) {
       if (e instanceof CrsError) {
+        const code = pendingEpsgCode(options.crs);
+        const lookup = code === undefined ? undefined : lookups.get(code);
         throw new ImportOptionsError(
           'crs',
-          /not in the built-in table/.test(e.message)
-            ? `${e.message.replace(/; it needs the EPSG index.*$/, '')}; in the browser, give its proj4 definition (+proj=...) instead`
-            : e.message,
+          code === undefined
+            ? e.message
+            : (lookup?.failed ?? (lookup ? `EPSG:${code} is being looked up in the EPSG index` : `EPSG:${code} is not in the built-in table and has not been looked up in the EPSG index yet (prepareCrs)`)),
         );
       }
       throw e;
@@ -106,11 +146,13 @@ export function crsChoiceGroups(): CrsChoiceGroup[] {
 }
 
 /**
- * A one-line description of a CRS text for the form: its name and area, or why it cannot be used.
+ * A one-line description of a CRS text for the form: its name and area, or why it cannot be used
+ * (`pending` while its EPSG code is being looked up).
  * @example describeCrsText('UTM 33N') // { ok: true, text: 'WGS 84 / UTM zone 33N (EPSG:32633)' }
  */
-export function describeCrsText(text: string): { ok: boolean; text: string } {
+export function describeCrsText(text: string): { ok: boolean; text: string; pending?: true } {
   if (text.trim() === '') return { ok: false, text: 'no coordinate system chosen' };
+  if (crsLookupRunning(text)) return { ok: false, pending: true, text: `Looking up EPSG:${pendingEpsgCode(text)} in the EPSG index…` };
   try {
     const crs = crsFromText(text);
     const notes = crs.notes.length ? `; ${crs.notes.join('; ')}` : '';

@@ -5,7 +5,8 @@ import { GeoJsonError, readGeoJsonStations } from '../../io/readGeoJson';
 import { readStation, type GivenLocation } from '../../io/readStations';
 import { checkProject, isProjectLike, ProjectFileError, type DatasetTable, type ExtraFields, type FoldlensProject, type ImportOptions } from '../../io/projectFile';
 import { CsvStreamReader, Utf8ChunkDecoder } from './csvStream';
-import { ImportOptionsError, toReadOptions } from './importOptions';
+import { ImportOptionsError, prepareCrs, toReadOptions } from './importOptions';
+import { CrsError, rememberCrs, type Crs } from '../../io/crs';
 
 /**
  * The work of reading a file for import, with no DOM: `scanFile` looks at a file (its format,
@@ -84,6 +85,11 @@ export interface ReadRequest {
   readonly headBytes?: number;
   /** Stations per batch (default 5000). */
   readonly batchSize?: number;
+  /**
+   * The CRS of `options.crs` when the caller has looked its EPSG code up already (the page, for its
+   * worker), so the EPSG table is not loaded a second time.
+   */
+  readonly crs?: Crs;
 }
 
 /** One batch of stations, in row order, continuing the previous batch. */
@@ -153,9 +159,12 @@ export async function scanFile(file: Blob, fileName: string, options: { delimite
 export async function readFileStations(file: Blob, request: ReadRequest, sink: ReadSink, signal?: AbortSignal): Promise<{ table: DatasetTable; rowCount: number }> {
   let readOptions;
   try {
+    // An EPSG code outside the built-in table is known from the caller, or looked up here.
+    if (request.crs) rememberCrs(request.crs);
+    await prepareCrs(request.options.crs);
     readOptions = toReadOptions(request.options);
   } catch (e) {
-    if (e instanceof ImportOptionsError) throw new ImportFileError('options', e.message);
+    if (e instanceof ImportOptionsError || e instanceof CrsError) throw new ImportFileError('options', e.message);
     throw e;
   }
   if (request.format === 'geojson') return readGeoJsonFile(file, request, readOptions, sink);
