@@ -5,8 +5,13 @@ import { LiveSelection, type SelectionCombine } from '../core/liveSelection';
 import { lonLatToMercator } from '../core/webMercator';
 import { fitGirdleFromSums, type GirdleFit } from '../core/girdle';
 import { lineToVector, poleOf } from '../core/vectors';
+import { foldInputFromStations } from '../core/foldInput';
+import type { FoldAnalysis } from '../core/foldAnalysis';
+import { newDomainId, nextDomainName, type Domain } from '../core/domain';
+import { AnalysisClient } from '../worker/analysisClient';
 import { FoldlensOverlay, type FoldlensOverlayOptions } from './foldlensOverlay';
 import { SelectionDrawer, type SelectionToolName, type ShapeEventDetail } from './selectionDrawer';
+import { DomainLayer } from './domainLayer';
 
 /** Detail of the `selectionchange` event. */
 export interface SelectionChangeDetail {
@@ -22,16 +27,44 @@ export interface SelectionChangeDetail {
   readonly shape: ReadonlyArray<readonly [number, number]> | null;
 }
 
+/** Detail of the `axiscomputed` event: the full fold analysis of a finished selection. */
+export interface AxisComputedDetail {
+  /** The selected station indices the analysis is of. */
+  readonly indices: Int32Array;
+  /** Fold axis, girdle, 95% cone, beta axis, fabric and warnings (null fields where undefined). */
+  readonly analysis: FoldAnalysis;
+}
+
+/** Detail of the `domainsaved` event. */
+export interface DomainSavedDetail {
+  readonly domain: Domain;
+}
+
+/** Options of {@link Foldlens}: the overlay's, plus the analysis run after each finished selection. */
+export interface FoldlensOptions extends FoldlensOverlayOptions {
+  /**
+   * The fold analysis run in a web worker when a selection is finished, announced by
+   * `axiscomputed`; `false` turns it off (a host that runs its own). Default: 500 bootstrap
+   * resamples for the cone, seed 1, so the same selection always gives the same numbers.
+   */
+  readonly analysis: { readonly bootstrap: number; readonly seed: number } | false;
+}
+
+const defaultAnalysis = { bootstrap: 500, seed: 1 } as const;
+
 /**
  * Foldlens attached to a MapLibre map: orientation symbols ({@link FoldlensOverlay}), selection
- * tools ({@link SelectionDrawer}) and a live selection whose girdle fit updates on every move.
+ * tools ({@link SelectionDrawer}), a live selection whose girdle fit updates on every move, the
+ * full fold analysis of each finished selection, and structural domains saved from selections.
  *
  * Events (CustomEvent on this object): `selectionchange` ({@link SelectionChangeDetail}),
+ * `axiscomputed` ({@link AxisComputedDetail}), `domainsaved` ({@link DomainSavedDetail}),
  * `stationclick` and `stationhover` (forwarded from the overlay).
  * @example
  * const foldlens = new Foldlens(map); // or attachFoldlens(map)
  * foldlens.setStations(stations);
  * foldlens.addEventListener('selectionchange', (e) => console.log(e.detail.indices.length));
+ * foldlens.addEventListener('axiscomputed', (e) => console.log(e.detail.analysis.axis));
  * foldlens.setTool('lasso');
  */
 export class Foldlens extends EventTarget {
@@ -43,11 +76,18 @@ export class Foldlens extends EventTarget {
   private frame = 0;
   private lastShape: Array<readonly [number, number]> | null = null;
   private drawing: Array<readonly [number, number]> = [];
+  private readonly analysisOptions: FoldlensOptions['analysis'];
+  private analysisClient: AnalysisClient | null = null;
+  private latestAnalysis: AxisComputedDetail | null = null;
+  private savedDomains: Domain[] = [];
+  private domainLayer: DomainLayer | null = null;
 
-  constructor(map: MapLibreMap, options: Partial<FoldlensOverlayOptions> = {}) {
+  constructor(map: MapLibreMap, options: Partial<FoldlensOptions> = {}) {
     super();
     this.map = map;
-    this.overlay = new FoldlensOverlay(map, options);
+    const { analysis = defaultAnalysis, ...overlayOptions } = options;
+    this.analysisOptions = analysis;
+    this.overlay = new FoldlensOverlay(map, overlayOptions);
     this.drawer = new SelectionDrawer(map, this.overlay.options.idPrefix);
     this.drawer.addEventListener('shapestart', this.onShape as EventListener);
     this.drawer.addEventListener('shapechange', this.onShape as EventListener);
@@ -153,11 +193,72 @@ export class Foldlens extends EventTarget {
     return this.lastShape;
   }
 
+  /** The analysis of the current selection once `axiscomputed` has announced it; null before, or with analysis off. */
+  get analysis(): AxisComputedDetail | null {
+    return this.latestAnalysis;
+  }
+
+  /** Domains saved with {@link saveDomain}, oldest first. */
+  get domains(): readonly Domain[] {
+    return this.savedDomains;
+  }
+
+  /**
+   * Saves the current selection as a structural domain: its outline, its fold analysis (the
+   * worker's, as `axiscomputed` gave it, or computed now) and the ids of its stations. The domain
+   * is drawn on the map with an arrow down its axis and announced by `domainsaved`.
+   * @throws Error when the selection has no single outline (nothing selected, or made with Add/Remove).
+   */
+  async saveDomain(name?: string): Promise<Domain> {
+    const ring = this.lastShape;
+    const indices = this.selection.selectedIndices();
+    if (!ring || indices.length === 0) throw new Error('a domain needs a selection drawn as one shape (not made with Add or Remove)');
+    const analysis = this.latestAnalysis && sameIndices(this.latestAnalysis.indices, indices) ? this.latestAnalysis.analysis : await this.analyse(indices);
+    const domain: Domain = {
+      id: newDomainId(),
+      name: name?.trim() || nextDomainName(this.savedDomains),
+      ring: ring.map((p) => [p[0], p[1]] as const),
+      analysis,
+      stationIds: Array.from(indices, (i) => this.stations[i].id),
+      updated: new Date().toISOString(),
+    };
+    this.savedDomains = [...this.savedDomains, domain];
+    this.domainLayer ??= new DomainLayer(this.map, this.overlay.options.idPrefix);
+    this.domainLayer.setDomains(this.savedDomains);
+    this.dispatchEvent(new CustomEvent<DomainSavedDetail>('domainsaved', { detail: { domain } }));
+    return domain;
+  }
+
   /** Removes everything Foldlens added to the map. */
   remove(): void {
     cancelAnimationFrame(this.frame);
+    this.analysisClient?.terminate();
+    this.domainLayer?.remove();
     this.drawer.remove();
     this.overlay.remove();
+  }
+
+  /** The fold analysis of some stations, in the worker (null only when a newer run superseded it). */
+  private async analyse(indices: Int32Array): Promise<FoldAnalysis | null> {
+    const settings = this.analysisOptions || defaultAnalysis;
+    this.analysisClient ??= new AnalysisClient();
+    const { planes, lines } = foldInputFromStations(this.stations, indices);
+    const result = await this.analysisClient.run({ planes, lines, bootstrap: settings.bootstrap, seed: settings.seed, density: 'off', net: 'equal-area' });
+    return result?.analysis ?? null;
+  }
+
+  /** Runs the analysis of a finished selection and announces it, unless a newer selection took over. */
+  private announceAnalysis(indices: Int32Array): void {
+    this.latestAnalysis = null;
+    if (!this.analysisOptions || indices.length === 0) return;
+    this.analyse(indices).then(
+      (analysis) => {
+        if (!analysis || !sameIndices(indices, this.selection.selectedIndices())) return;
+        this.latestAnalysis = { indices, analysis };
+        this.dispatchEvent(new CustomEvent<AxisComputedDetail>('axiscomputed', { detail: this.latestAnalysis }));
+      },
+      (e: unknown) => console.error('Foldlens: the fold analysis failed', e),
+    );
   }
 
   private readonly onShape = (e: CustomEvent<ShapeEventDetail>): void => {
@@ -215,7 +316,14 @@ export class Foldlens extends EventTarget {
       shape: this.lastShape,
     };
     this.dispatchEvent(new CustomEvent<SelectionChangeDetail>('selectionchange', { detail }));
+    if (final) this.announceAnalysis(detail.indices);
   }
+}
+
+function sameIndices(a: Int32Array, b: Int32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let k = 0; k < a.length; k++) if (a[k] !== b[k]) return false;
+  return true;
 }
 
 /**
@@ -227,6 +335,6 @@ export class Foldlens extends EventTarget {
  * foldlens.addEventListener('selectionchange', (e) => console.log(e.detail.quickFit?.axis));
  * // later: foldlens.remove();
  */
-export function attachFoldlens(map: MapLibreMap, options: Partial<FoldlensOverlayOptions> = {}): Foldlens {
+export function attachFoldlens(map: MapLibreMap, options: Partial<FoldlensOptions> = {}): Foldlens {
   return new Foldlens(map, options);
 }

@@ -2,11 +2,17 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { inject } from 'vitest';
 import { launchBrowser } from './browser';
+import { analyzeFold } from '../../src/core/foldAnalysis';
+import { foldInputFromStations } from '../../src/core/foldInput';
+import type { Station } from '../../src/core/station';
+import type { AxisComputedDetail, DomainSavedDetail } from '../../src/map/foldlens';
 
 type HostWindow = {
   map: import('maplibre-gl').Map;
   foldlens: import('../../src/map/foldlens').Foldlens;
   hostStyle: (c: string) => import('maplibre-gl').StyleSpecification;
+  stations: Station[];
+  heard: Array<{ type: string; detail: unknown }>;
 };
 
 describe('Foldlens attached to an unrelated host map', () => {
@@ -57,6 +63,48 @@ describe('Foldlens attached to an unrelated host map', () => {
     await page.mouse.up();
     const selected = await page.evaluate(() => Array.from((window as unknown as HostWindow).foldlens.selectedIndices()));
     expect(selected).toEqual([0, 1, 2, 3]);
+  });
+
+  it('the finished lasso brings an axiscomputed event with the same analysis the core gives in Node', async () => {
+    await page.waitForFunction(() => (window as unknown as HostWindow).heard.some((h) => h.type === 'axiscomputed'), null, { timeout: 30_000 });
+    const { detail, stations } = await page.evaluate(() => {
+      const w = window as unknown as HostWindow;
+      const last = w.heard.filter((h) => h.type === 'axiscomputed').at(-1)!.detail as AxisComputedDetail;
+      return { detail: { indices: Array.from(last.indices), analysis: last.analysis }, stations: w.stations };
+    });
+    expect(detail.indices).toEqual([0, 1, 2, 3]);
+    // Same stations, same default settings (500 resamples, seed 1): the worker's numbers are the core's.
+    const expected = analyzeFold(foldInputFromStations(stations, detail.indices), { bootstrap: 500, seed: 1 });
+    expect(detail.analysis.n).toBe(3);
+    expect(detail.analysis.axis).not.toBeNull();
+    expect(detail.analysis.axis!.trend).toBeCloseTo(expected.axis!.trend, 9);
+    expect(detail.analysis.axis!.plunge).toBeCloseTo(expected.axis!.plunge, 9);
+    expect(detail.analysis.cone95).toBeCloseTo(expected.cone95!, 9);
+  });
+
+  it('saveDomain(name) keeps the lassoed area with its analysis, draws it and announces domainsaved', async () => {
+    const saved = await page.evaluate(async () => {
+      const w = window as unknown as HostWindow;
+      const domain = await w.foldlens.saveDomain('Ridge <b>east</b>');
+      await new Promise((r) => w.map.once('idle', r));
+      const heard = w.heard.filter((h) => h.type === 'domainsaved').map((h) => (h.detail as DomainSavedDetail).domain.id);
+      const labels = [...document.querySelectorAll('.foldlens-domain-label')].map((el) => el.textContent ?? '');
+      const bold = document.querySelectorAll('.foldlens-domain-label b').length;
+      return { domain, heard, labels, bold, layers: w.map.getStyle().layers.map((l) => l.id), listed: w.foldlens.domains.length };
+    });
+    expect(saved.heard).toEqual([saved.domain.id]);
+    expect(saved.listed).toBe(1);
+    expect(saved.domain.name).toBe('Ridge <b>east</b>');
+    expect(saved.domain.stationIds).toEqual(['H1', 'H2', 'H3', 'H4']);
+    expect(saved.domain.ring.length).toBeGreaterThan(3);
+    expect(saved.domain.analysis?.n).toBe(3);
+    expect(saved.labels.some((t) => t.includes('Ridge <b>east</b>'))).toBe(true); // shown as text
+    expect(saved.bold).toBe(0);
+    expect(saved.layers.some((id) => id.startsWith('foldlens-domain'))).toBe(true);
+    await page.evaluate(() => (window as unknown as HostWindow).foldlens.clearSelection());
+    const refused = await page.evaluate(() => (window as unknown as HostWindow).foldlens.saveDomain().then(() => 'saved', (e: Error) => e.message));
+    expect(refused).toMatch(/needs a selection drawn as one shape/);
+    expect(errors).toEqual([]);
   });
 
   for (const pointerType of ['touch', 'pen'] as const) {
@@ -110,6 +158,7 @@ describe('Foldlens attached to an unrelated host map', () => {
     expect(s.layers).toEqual(['background', 'parcels']);
     expect(s.sources).toEqual(['parcels']);
     expect(s.images.filter((id) => id.startsWith('fl-'))).toEqual([]);
+    expect(await page.locator('.foldlens-domain-label').count()).toBe(0);
     // The map pans again with the pointer once the tools are gone.
     expect(await page.evaluate(() => (window as unknown as HostWindow).map.dragPan.isEnabled())).toBe(true);
     expect(errors).toEqual([]);

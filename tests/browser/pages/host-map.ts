@@ -28,4 +28,7 @@ map.on('load', () => {
   foldlens.setStations(stations);
   map.once('idle', () => document.body.setAttribute('data-map-ready', 'true'));
 });
-Object.assign(window, { map, foldlens, stations, hostStyle });
+// What the host hears: the analysis of each finished selection, and saved domains.
+const heard: Array<{ type: string; detail: unknown }> = [];
+for (const type of ['axiscomputed', 'domainsaved']) foldlens.addEventListener(type, (e) => heard.push({ type, detail: (e as CustomEvent).detail }));
+Object.assign(window, { map, foldlens, stations, hostStyle, heard });
