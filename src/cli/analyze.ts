@@ -1,5 +1,7 @@
 import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS, foldInputFromStations } from '../core/foldInput';
 import { analyzeFold, type FoldAnalysis } from '../core/foldAnalysis';
+import type { FoldDescription, FoldDescriptionFailure } from '../core/foldDescription';
+import { describeIfGirdle } from '../worker/analysisJob';
 import { formatLine, formatPlane } from '../core/notation';
 import { isLineKind, isPlaneKind, LINE_KINDS, PLANE_KINDS, type Line, type MeasurementKind, type PlaneMeasurement } from '../core/types';
 import { isUsable, type Station } from '../core/station';
@@ -39,8 +41,11 @@ export const ANALYZE_HELP = `Usage: foldlens analyze <file.csv|file.geojson> [op
 Finds the fold axis of the usable planes of the folded surface (bedding unless
 --plane-kinds says otherwise; cleavage and other axial-planar fabrics are left out) as
 the pole of their best-fit girdle, with the eigenvalues of the orientation tensor,
-Woodcock's K and C, a bootstrap cone about the axis, and the Fisher mean of measured
-lines (hinges, lineations) with its angle to the axis.
+Woodcock's K and C, how far the poles lie from one great circle (a warning when they
+scatter too far to share one axis), a bootstrap cone about the axis, the Fisher mean of
+measured lines (hinges, lineations) with its angle to the axis, and for a two-limbed
+fold its limb maxima (the densest pole directions of each limb), interlimb angle,
+limb-bisector axial plane and Fleuty (1964) classes, as the map's net panel shows them.
 Rows that cannot be read are listed on stderr (row numbers: header = row 0).
 
 Exit codes: 0 all rows read; 1 some rows could not be read, or no plane to analyse;
@@ -54,6 +59,8 @@ ${formatOptions(ANALYZE_OPTIONS)}
 
 /** What the JSON output holds besides the analysis itself. */
 export interface AnalyzeReport extends FoldAnalysis {
+  /** The fold description the net panel shows (worker/analysisJob.ts), or why there is none. */
+  readonly description: FoldDescription | FoldDescriptionFailure;
   readonly caution: string;
   readonly input: {
     readonly file: string;
@@ -102,6 +109,7 @@ export async function runAnalyze(argv: readonly string[], io: CliIo): Promise<nu
   const analysis = analyzeFold({ planes, ...(lines.length > 0 && { lines }) }, { ...(bootstrap !== undefined && { bootstrap }), ...(seed !== undefined && { seed }) });
   const report: AnalyzeReport = {
     ...analysis,
+    description: describeIfGirdle(planes, analysis),
     caution: CAUTION,
     input: {
       file: path,
@@ -168,6 +176,7 @@ function summary(r: AnalyzeReport, bootstrap: number | undefined, seed: number |
   if (r.cone95 !== null) out.push(`95% cone about the axis: ${r.cone95.toFixed(1)}° (bootstrap, ${bootstrap ?? 500} resamples, seed ${seed ?? 1})`);
   if (r.eigenvalues) out.push(`Eigenvalues S1, S2, S3: ${r.eigenvalues.map((e) => e.toFixed(4)).join(', ')}`);
   if (r.woodcock) out.push(`Woodcock K = ${fixed(r.woodcock.K, 2)}, C = ${fixed(r.woodcock.C, 2)}`);
+  if (r.cylindricity) out.push(`Girdle fit: poles ${r.cylindricity.misfit.toFixed(1)}° (RMS) from the girdle, cylindricity S2/(S2+S3) = ${r.cylindricity.cylindricity.toFixed(3)}`);
   out.push(`Beta axis: ${line(r.beta)}`);
   if (r.lines) {
     const l = r.lines;
@@ -176,6 +185,7 @@ function summary(r: AnalyzeReport, bootstrap: number | undefined, seed: number |
     );
   }
   out.push(`Reading: ${r.reading}`);
+  out.push(r.description.ok ? `Fold: ${r.description.text}` : r.description.reason);
   for (const w of r.warnings) out.push(`Warning: ${w.message}`);
   out.push(`Method: ${r.method}`);
   out.push(`Caution: ${r.caution}`);

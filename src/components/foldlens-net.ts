@@ -626,7 +626,8 @@ export class FoldlensNet extends LitElement {
   private exportMeta(date: string): NumbersExportMeta {
     const g = this.numbersInput().density;
     const densityMethod = g ? ` Contours: ${g.method === 'kamb' ? 'Kamb counting' : 'exponential smoothing'}, levels ${levelsText(g.levels)}.` : '';
-    return { selection: this.selectionLabel, net: this.net, date, method: `${this.analysis?.method ?? 'No analysis.'}${densityMethod}` };
+    const fold = this.description?.ok ? ` ${this.description.method}` : '';
+    return { selection: this.selectionLabel, net: this.net, date, method: `${this.analysis?.method ?? 'No analysis.'}${fold}${densityMethod}` };
   }
 
   private async download(kind: 'svg' | 'png' | 'csv' | 'json'): Promise<void> {

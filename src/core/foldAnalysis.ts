@@ -16,6 +16,7 @@ import { readFabric, vollmerIndices, woodcockIndices, type FabricReading, type V
 import { bootstrapAxisCone, BOOTSTRAP_DEFAULTS } from './bootstrap';
 import { betaAxisOfNormals, BETA_DEFAULTS } from './betaAxis';
 import { assertLines, fisherLines } from './fisher';
+import { CYLINDRICAL_MISFIT, cylindricityFigures, type CylindricityFigures } from './cylindricity';
 import type { Line, Plane, PlaneMeasurement, Vec3 } from './types';
 
 /** What to analyse. */
@@ -42,6 +43,7 @@ export type FoldWarningCode =
   | 'cluster-not-girdle'
   | 'uniform-spread'
   | 'wide-cone'
+  | 'poor-girdle-fit'
   | 'beta-undefined'
   | 'few-lines';
 
@@ -82,6 +84,12 @@ export interface FoldAnalysis {
   readonly fabric: FabricReading | null;
   /** The result in one or two plain sentences. */
   readonly reading: string;
+  /**
+   * How well one great circle fits the poles (cylindricity.ts): `misfit`, the RMS angular
+   * distance of the poles from the girdle in degrees (asin √S3), `cylindricity` = S2/(S2 + S3),
+   * and their class. Null without a defined axis.
+   */
+  readonly cylindricity: CylindricityFigures | null;
   /** Bootstrap 95% cone half-angle about the axis in degrees; null when not computed or undefined. */
   readonly cone95: number | null;
   /** Beta axis (axial mean of pairwise intersections); null when undefined. */
@@ -157,7 +165,7 @@ export function analyzeFoldPoles(poles: ArrayLike<number>, options: FoldAnalysis
     const linesSummary = options.lines === undefined ? undefined : summarizeLines(options.lines, null, warnings);
     return {
       n, axis: null, girdle: null, eigenvalues: null, eigenvectors: null, woodcock: null, vollmer: null, fabric: null,
-      reading: 'No planes to analyse.', cone95: null, beta: null, ...(linesSummary && { lines: linesSummary }), warnings,
+      reading: 'No planes to analyse.', cylindricity: null, cone95: null, beta: null, ...(linesSummary && { lines: linesSummary }), warnings,
       method: methodText(0, samples, seed, null),
     };
   }
@@ -205,6 +213,19 @@ export function analyzeFoldPoles(poles: ArrayLike<number>, options: FoldAnalysis
     });
   }
 
+  // Misfit from the eigenvalues already at hand: O(1), so the live fit while drawing keeps it.
+  const cylindricity = axisDefined ? cylindricityFigures(fit.eigenvalues) : null;
+  // Only for a girdle: a cluster or a uniform spread already has its own warning.
+  if (cylindricity && n >= 3 && fabric.shape === 'girdle' && cylindricity.misfit > CYLINDRICAL_MISFIT) {
+    warnings.push({
+      code: 'poor-girdle-fit',
+      message:
+        `The poles scatter ${cylindricity.misfit.toFixed(1)}° (root mean square) from the best-fit great circle, more than the ${CYLINDRICAL_MISFIT}° that reading scatter explains, ` +
+        'so they do not share one fold axis: the selection may pool domains with different axes, or the fold is conical or refolded. ' +
+        'The axis is then an average and its 95% cone, which assumes one cylindrical fold, understates the uncertainty. Select one domain at a time.',
+    });
+  }
+
   let cone95: number | null = null;
   if (axisDefined && samples > 0 && n >= 3) {
     cone95 = bootstrapAxisCone(poles, fit.axisVector, { samples, seed }).cone;
@@ -228,6 +249,7 @@ export function analyzeFoldPoles(poles: ArrayLike<number>, options: FoldAnalysis
     vollmer,
     fabric,
     reading: readingText(fabric, axis, parallel, cone95),
+    cylindricity,
     cone95,
     beta: beta.axis,
     ...(lines && { lines }),
@@ -279,6 +301,7 @@ function methodText(n: number, samples: number, seed: number, beta: ReturnType<t
     `Poles to ${n} plane${n === 1 ? '' : 's'} were summed into the orientation tensor T = (1/N)·Σ p pᵀ; its eigenvalues are S1 ≥ S2 ≥ S3 (sum 1).`,
     'The fold axis (pi axis) is the eigenvector of the least eigenvalue S3, the pole of the best-fit girdle.',
     'Fabric shape and strength: Woodcock (1977) K = ln(S1/S2)/ln(S2/S3), C = ln(S1/S3); Vollmer (1990) P = S1 − S2, G = 2(S2 − S3), R = 3·S3.',
+    `Fit of one great circle: misfit = asin √S3, the RMS angular distance of the poles from the girdle, and cylindricity = S2/(S2 + S3); a misfit above ${CYLINDRICAL_MISFIT}° is warned of.`,
     samples > 0
       ? `The 95% cone is the 95th percentile of the angles between the axis and the axes of ${samples} bootstrap resamples of the poles (seed ${seed}; at most ${BOOTSTRAP_DEFAULTS.maxDraws} poles drawn per resample, angles rescaled by √(m/n) above that).`
       : 'No bootstrap cone was computed.',

@@ -6,27 +6,40 @@
  * Method (Foldlens's choices, stated so they can be checked):
  * 1. Axis: the pi axis of all poles (girdle.ts), or one given by the caller.
  * 2. Limbs: every pole is projected onto the profile plane (perpendicular to the axis) and
- *    read as an axial angle there. Angles are doubled so that a pole and its antipode agree,
- *    and the poles are split by the sign of that angle measured from S1's eigenvector, the
- *    direction between the two limbs for limbs of comparable size. The split is then refined
- *    by two-means on the doubled angles (each pole joins the nearer limb mean, until no pole
- *    moves), which also copes with limbs of unequal size.
- * 3. Limb maxima: each limb's axial mean pole (principal eigenvector of its poles' tensor),
- *    also given as the plane of that pole.
+ *    read as an axial angle there, doubled so that a pole and its antipode agree. The poles
+ *    sweep one arc of that circle, from one limb through the hinge to the other, so the circle
+ *    is cut in the empty arc beyond the limbs, unrolled, and split into two limbs by two-means
+ *    along the unrolled arc; where several gaps could be that empty arc, the split whose limbs'
+ *    facing normals (step 4) agree best is kept (see `splitLimbs`). This copes with limbs of
+ *    unequal size, broad hinges and tight folds.
+ * 3. Limb maxima: the MODE of each limb's poles along the girdle, not their mean. Each pole's
+ *    angle about the axis in the profile plane (its position along the girdle) is smoothed by a
+ *    circular kernel density (von Mises kernel, bandwidth 4° by default) and the densest angle of
+ *    each limb is its maximum (limbModes.ts). The two limbs lie on either side of the hinge (the
+ *    split of step 2), so these are the two strongest modes separated by the hinge. A rounded
+ *    hinge adds a tail of poles between the limbs that pulls a mean pole inward (and the
+ *    interlimb angle open) but barely moves a mode. A limb of fewer than 5 planes keeps its
+ *    axial mean pole (principal eigenvector of its poles' tensor): the density of so few readings
+ *    has no meaningful mode. The mean poles and the interlimb angle they give are reported too.
  * 4. Facing: the side a limb faces (towards younger beds) is the upward normal of a plane,
  *    or the downward one when the plane is flagged `overturned`. A limb faces the side of its
- *    mean pole that the sum of its planes' facing normals points to (a vote, which copes
+ *    maximum (and of its mean pole) that the sum of its planes' facing normals points to (a vote, which copes
  *    with steep limbs read with dips on both sides of vertical). A vertical plane has no up
  *    or down: it is taken to face its recorded dip direction (the limit of a steep plane
  *    dipping that way, right way up), or the opposite way when flagged overturned.
  * 5. Interlimb angle, measured in the profile plane as Fleuty defines it: 180° minus the
- *    angle between the two limbs' facing normals, after projecting both onto the profile
+ *    angle between the two limb maxima's facing normals, after projecting both onto the profile
  *    plane. For an upright fold with limbs dipping 30° either way this gives 120°; for a
  *    recumbent fold whose lower limb is flagged overturned it gives about 0°.
  *    Without overturned flags every limb counts as right way up, which is right for upright
  *    and inclined folds but reads a recumbent isoclinal fold as a gentle one.
- * 6. Axial plane: the plane through the axis that bisects the interlimb angle; its normal is
- *    the difference of the two facing normals (both in the profile plane).
+ * 6. Axial plane: the plane through the axis that bisects the limb maxima (the limb bisector);
+ *    its normal is the difference of the two facing normals (both in the profile plane). For an
+ *    inclined asymmetric fold the true axial surface (through the hinges of successive layers)
+ *    can differ from the bisector by several degrees: on the sheared Korvane sample folds the
+ *    bisector is 6° (west) and 10° (east) off the planted axial surface (derived from
+ *    truth.json's profile: the surface through the hinges leans atan(shear) in the profile, the
+ *    limb bisector only by half the difference of the two limbs' dips in the profile).
  *
  * Results are aids to interpretation; defer to local codes and licensed professional practice.
  */
@@ -34,6 +47,7 @@ import { acosClamped, toDegrees } from './math';
 import { eigenSymmetric3 } from './eigen';
 import { assertPlanes, fitGirdle } from './girdle';
 import { assertLines } from './fisher';
+import { axialMode, LIMB_MODE_BANDWIDTH } from './limbModes';
 import { tensorFromSums, tensorSumsOfVectors } from './orientationTensor';
 import { cross, dot, lineToVector, normalToPlane, planeNormal, planeOf, vectorToLine } from './vectors';
 import type { Line, Plane, PlaneMeasurement, Vec3 } from './types';
@@ -83,14 +97,25 @@ export const INTERLIMB_CLASSES: readonly { readonly from: number; readonly name:
   { from: 120, name: 'gentle' }, // [120, 180]
 ];
 
+/**
+ * Limbs with fewer planes than this keep their mean pole as their maximum (Foldlens convention:
+ * a kernel density of 1 to 4 readings has a mode at one reading, not at the limb).
+ * @example d.limbs[0].n < MIN_LIMB_MODE_PLANES ? 'mean' : 'mode'
+ */
+export const MIN_LIMB_MODE_PLANES = 5;
+
 /** One limb of the fold. */
 export interface FoldLimb {
   /** Planes in this limb. */
   readonly n: number;
-  /** Axial mean pole (limb maximum), lower hemisphere. */
+  /** Limb maximum: the densest pole direction of the limb along the girdle (see `estimate`), lower hemisphere. */
   readonly pole: Line;
-  /** The plane of the mean pole. */
+  /** The plane of the limb maximum. */
   readonly plane: Plane;
+  /** 'mode' (kernel density mode along the girdle) or 'mean' (axial mean pole, for limbs of fewer than 5 planes). */
+  readonly estimate: 'mode' | 'mean';
+  /** Axial mean pole of the limb (principal eigenvector of its poles' tensor), lower hemisphere. */
+  readonly meanPole: Line;
   /** From the `overturned` flags of its planes. */
   readonly facing: 'right way up' | 'overturned' | 'mixed';
 }
@@ -100,9 +125,13 @@ export interface FoldDescription {
   readonly ok: true;
   readonly axis: Line;
   readonly limbs: readonly [FoldLimb, FoldLimb];
-  /** Degrees, 0..180, in the profile plane. */
+  /** Degrees, 0..180, in the profile plane, between the limb maxima (modes). */
   readonly interlimbAngle: number;
-  /** Null when the limbs face the same way (interlimb angle 180°: no fold to bisect). */
+  /** The same angle between the limbs' mean poles, which rounded hinges pull open; for comparison. */
+  readonly interlimbAngleOfMeans: number;
+  /** Kernel bandwidth of the limb modes, degrees. */
+  readonly bandwidth: number;
+  /** The limb bisector: the plane through the axis bisecting the limb maxima. Null when the limbs face the same way (interlimb angle 180°: no fold to bisect). */
   readonly axialPlane: Plane | null;
   readonly classes: {
     readonly hingePlunge: HingePlungeClass;
@@ -113,6 +142,8 @@ export interface FoldDescription {
   readonly unassigned: number;
   /** The description in words. */
   readonly text: string;
+  /** How the limbs, interlimb angle and axial plane were found, in words. */
+  readonly method: string;
 }
 
 /** Why a fold could not be described. */
@@ -125,6 +156,8 @@ export interface FoldDescriptionFailure {
 export interface FoldDescriptionOptions {
   /** Use this axis instead of the pi axis of the planes. */
   readonly axis?: Line;
+  /** Kernel bandwidth of the limb modes in degrees (default {@link LIMB_MODE_BANDWIDTH}, 4). */
+  readonly bandwidth?: number;
 }
 
 /**
@@ -161,6 +194,8 @@ export function interlimbClass(angle: number): InterlimbClass {
 export function describeFold(planes: readonly PlaneMeasurement[], options: FoldDescriptionOptions = {}): FoldDescription | FoldDescriptionFailure {
   assertPlanes(planes);
   if (options.axis !== undefined) assertLines([options.axis], 'options.axis');
+  const bandwidth = options.bandwidth ?? LIMB_MODE_BANDWIDTH;
+  if (!(bandwidth > 0 && bandwidth <= 90)) throw new RangeError(`describeFold options.bandwidth: ${String(bandwidth)} (expected degrees above 0, up to 90)`);
   if (planes.length < 2) return { ok: false, reason: `a fold needs planes on two limbs (got ${planes.length} plane${planes.length === 1 ? '' : 's'})` };
 
   const poles = planes.map(planeNormal);
@@ -173,37 +208,35 @@ export function describeFold(planes: readonly PlaneMeasurement[], options: FoldD
     a = fit.axisVector;
   }
 
-  // Profile-plane frame: u along S1's eigenvector (between the limbs), w = a × u.
+  // Profile-plane frame: u along S1's eigenvector, w = a × u (any frame would do).
   const u = unitOrNull(reject(fit.eigenvectors[0], a)) ?? unitOrNull(reject(fit.eigenvectors[1], a)) ?? anyPerpendicular(a);
   const w = cross(a, u);
 
-  // Doubled profile angle of each pole; NaN marks a pole along the axis (no profile trace).
-  const doubled = poles.map((p) => {
+  // Profile angle of each pole (an axis: θ and θ + 180° agree) and of its facing normal (step 4;
+  // the same line with a sense); NaN marks a pole along the axis (no profile trace).
+  const poleAngles = poles.map((p) => {
     const pu = dot(p, u), pw = dot(p, w);
-    return Math.hypot(pu, pw) < 1e-9 ? Number.NaN : 2 * Math.atan2(pw, pu);
+    return Math.hypot(pu, pw) < 1e-9 ? Number.NaN : Math.atan2(pw, pu);
   });
-  const unassigned = doubled.filter(Number.isNaN).length;
-  let side = doubled.map((t) => (Number.isNaN(t) ? -1 : Math.sin(t) >= 0 ? 1 : 0));
-  for (let iter = 0; iter < 50; iter++) {
-    const cA = circularMean(doubled, side, 0);
-    const cB = circularMean(doubled, side, 1);
-    if (cA === null || cB === null) break;
-    const next = doubled.map((t) => (Number.isNaN(t) ? -1 : Math.cos(t - cB) > Math.cos(t - cA) ? 1 : 0));
-    if (next.every((s, i) => s === side[i])) break;
-    side = next;
-  }
+  const facingAngles = poleAngles.map((t, i) => (planes[i].overturned ? t : t + Math.PI));
+  const unassigned = poleAngles.filter(Number.isNaN).length;
+  const side = splitLimbs(poleAngles, facingAngles);
   const limbPoles = [0, 1].map((k) => poles.filter((_, i) => side[i] === k));
   if (limbPoles[0].length === 0 || limbPoles[1].length === 0) {
     return { ok: false, reason: 'all poles fall on one limb: the planes do not outline two limbs about the axis' };
   }
   const limbPlanes = [0, 1].map((k) => planes.filter((_, i) => side[i] === k));
+  const limbAngles = [0, 1].map((k) => poleAngles.filter((_, i) => side[i] === k));
 
-  const limbs = [0, 1].map((k) => describeLimb(limbPoles[k], limbPlanes[k])) as [LimbWork, LimbWork];
+  const limbs = [0, 1].map((k) => describeLimb(limbPoles[k], limbPlanes[k], limbAngles[k], u, w, bandwidth)) as [LimbWork, LimbWork];
   const fA = unitOrNull(reject(limbs[0].facingVector, a));
   const fB = unitOrNull(reject(limbs[1].facingVector, a));
-  if (fA === null || fB === null) return { ok: false, reason: 'a limb mean lies along the axis, so the limb has no trace in the profile plane' };
+  const mA = unitOrNull(reject(limbs[0].meanFacingVector, a));
+  const mB = unitOrNull(reject(limbs[1].meanFacingVector, a));
+  if (fA === null || fB === null || mA === null || mB === null) return { ok: false, reason: 'a limb mean lies along the axis, so the limb has no trace in the profile plane' };
 
   const interlimbAngle = 180 - toDegrees(acosClamped(dot(fA, fB)));
+  const interlimbAngleOfMeans = 180 - toDegrees(acosClamped(dot(mA, mB)));
   const bisectorNormal = unitOrNull({ x: fA.x - fB.x, y: fA.y - fB.y, z: fA.z - fB.z });
   const axialPlane = bisectorNormal === null ? null : normalToPlane(bisectorNormal);
   const axis = vectorToLine(a);
@@ -218,47 +251,73 @@ export function describeFold(planes: readonly PlaneMeasurement[], options: FoldD
     axis,
     limbs: publicLimbs,
     interlimbAngle,
+    interlimbAngleOfMeans,
+    bandwidth,
     axialPlane,
     classes,
     unassigned,
-    text: describeInWords(axis, axialPlane, interlimbAngle, classes, publicLimbs, unassigned),
+    text: describeInWords(axis, axialPlane, interlimbAngle, interlimbAngleOfMeans, classes, publicLimbs, unassigned),
+    method:
+      `Limbs: the poles' angles about the axis in the profile plane, split at the hinge. Limb maxima: the mode of each limb's angles (von Mises kernel density on doubled angles, bandwidth ${bandwidth}°), or the mean pole for a limb of fewer than ${MIN_LIMB_MODE_PLANES} planes. ` +
+      'Interlimb angle: 180° minus the angle between the limb maxima\'s facing normals in the profile plane; classes of Fleuty (1964). ' +
+      'Axial plane: the limb bisector through the axis, which can differ from the true axial surface of an inclined or asymmetric fold.',
   };
 }
 
 interface LimbWork {
   readonly limb: FoldLimb;
+  /** Facing normal of the limb maximum. */
   readonly facingVector: Vec3;
+  /** Facing normal of the limb's mean pole. */
+  readonly meanFacingVector: Vec3;
 }
 
-function describeLimb(poles: readonly Vec3[], planes: readonly PlaneMeasurement[]): LimbWork {
-  const m = eigenSymmetric3(tensorFromSums(tensorSumsOfVectors(poles))).vectors[0];
+/**
+ * One limb: its mean pole, its maximum (the mode of its profile angles `angles`, radians from u
+ * toward w), and which way each faces.
+ */
+function describeLimb(poles: readonly Vec3[], planes: readonly PlaneMeasurement[], angles: readonly number[], u: Vec3, w: Vec3, bandwidth: number): LimbWork {
+  const mean = eigenSymmetric3(tensorFromSums(tensorSumsOfVectors(poles))).vectors[0];
+  const theta = poles.length >= MIN_LIMB_MODE_PLANES ? axialMode(angles, bandwidth) : null;
+  const mode = theta === null ? mean : { x: Math.cos(theta) * u.x + Math.sin(theta) * w.x, y: Math.cos(theta) * u.y + Math.sin(theta) * w.y, z: Math.cos(theta) * u.z + Math.sin(theta) * w.z };
   // Vote: the facing normal of each plane is -pole (upward) or +pole when overturned.
-  let vote = 0;
-  poles.forEach((p, i) => {
-    vote += (planes[i].overturned ? 1 : -1) * dot(p, m);
-  });
-  const facingVector = vote > 0 ? m : { x: -m.x, y: -m.y, z: -m.z };
+  const facingOf = (m: Vec3): Vec3 => {
+    let vote = 0;
+    poles.forEach((p, i) => {
+      vote += (planes[i].overturned ? 1 : -1) * dot(p, m);
+    });
+    return vote > 0 ? m : { x: -m.x, y: -m.y, z: -m.z };
+  };
   const flagged = planes.filter((p) => p.overturned === true).length;
   const facing = flagged === 0 ? 'right way up' : flagged === planes.length ? 'overturned' : 'mixed';
-  const pole = vectorToLine(m);
-  return { limb: { n: poles.length, pole, plane: planeOf(pole), facing }, facingVector };
+  const pole = vectorToLine(mode);
+  return {
+    limb: { n: poles.length, pole, plane: planeOf(pole), estimate: theta === null ? 'mean' : 'mode', meanPole: vectorToLine(mean), facing },
+    facingVector: facingOf(mode),
+    meanFacingVector: facingOf(mean),
+  };
 }
 
 function describeInWords(
   axis: Line,
   axialPlane: Plane | null,
   interlimb: number,
+  interlimbOfMeans: number,
   classes: FoldDescription['classes'],
   limbs: readonly [FoldLimb, FoldLimb],
   unassigned: number,
 ): string {
   const words: string[] = [classes.hingePlunge, ...(classes.axialSurface === null ? [] : [classes.axialSurface]), classes.interlimb];
   const first = `${capitalize(words.join(', '))} fold (Fleuty 1964 classes): hinge ${fmt(axis.trend, 3)}/${fmt(axis.plunge, 2)}`;
-  const ap = axialPlane === null ? ', axial plane undefined' : `, axial plane ${fmt(axialPlane.dipDirection, 3)}/${fmt(axialPlane.dip, 2)} (dip direction/dip)`;
+  const ap = axialPlane === null ? ', axial plane undefined' : `, axial plane (limb bisector) ${fmt(axialPlane.dipDirection, 3)}/${fmt(axialPlane.dip, 2)} (dip direction/dip)`;
   const sentences = [`${first}${ap}, interlimb angle ${Math.round(interlimb)}°.`];
   sentences.push(
-    `Limb maxima ${limbs.map((l) => `${fmt(l.plane.dipDirection, 3)}/${fmt(l.plane.dip, 2)} (${l.n} plane${l.n === 1 ? '' : 's'})`).join(' and ')}.`,
+    `Limb maxima ${limbs.map((l) => `${fmt(l.plane.dipDirection, 3)}/${fmt(l.plane.dip, 2)} (${l.n} plane${l.n === 1 ? '' : 's'}${l.estimate === 'mean' ? ', mean pole' : ''})`).join(' and ')}.`,
   );
+  // Foldlens convention: a 5° difference is worth saying (a broad, rounded hinge).
+  if (Math.abs(interlimbOfMeans - interlimb) >= 5) {
+    sentences.push(`The limbs' mean poles, pulled toward the hinge, would give ${Math.round(interlimbOfMeans)}°: the hinge zone is broad.`);
+  }
   if (unassigned > 0) sentences.push(`${unassigned} plane${unassigned === 1 ? ' lies' : 's lie'} across the axis and belong${unassigned === 1 ? 's' : ''} to neither limb.`);
   if (limbs.every((l) => l.facing === 'right way up')) {
     sentences.push('No plane is flagged overturned, so both limbs were taken as right way up; an overturned limb would change the interlimb angle.');
@@ -274,12 +333,102 @@ function classify<T extends string>(value: number, max: number, table: readonly 
   return name;
 }
 
-function circularMean(angles: readonly number[], side: readonly number[], k: number): number | null {
-  let c = 0, s = 0, count = 0;
-  angles.forEach((t, i) => {
-    if (side[i] === k) { c += Math.cos(t); s += Math.sin(t); count++; }
-  });
-  return count === 0 || Math.hypot(c, s) < 1e-12 ? null : Math.atan2(s, c);
+/** Gaps at least this share of the widest are tried as the anti-hinge (Foldlens convention). */
+const ANTI_HINGE_GAP_SHARE = 0.25;
+/** At most this many gaps are tried. */
+const ANTI_HINGE_CANDIDATES = 8;
+
+/**
+ * Splits planes into two limbs, sides 0 and 1, from the profile angles of their poles (radians,
+ * axial; NaN: no trace, side -1) and of their facing normals (radians, full circle).
+ *
+ * On doubled pole angles (so that θ and θ + 180° agree) the poles of a fold sweep one arc, from
+ * one limb through the hinge to the other; the rest of the circle, beyond the limbs (the
+ * "anti-hinge"), stays empty. So the circle is cut in the middle of an empty arc, the angles are
+ * unrolled from there onto a line, where the limbs are the two ends and the hinge lies between,
+ * and the line is split where the two parts have the least summed squared deviation from their
+ * means (two-means in one dimension, solved exactly from prefix sums).
+ *
+ * Which empty arc: usually the widest, but a tight fold with few hinge readings can show a gap
+ * inside the hinge as wide as the anti-hinge, and cutting there pairs the two limbs (their poles
+ * are close across the anti-hinge). So every gap at least a quarter as wide as the widest (at most 8,
+ * widest first) is tried, and the split kept is the one whose two limbs' facing normals agree
+ * best: the largest R0 + R1, the lengths of the two limbs' resultant facing vectors in the
+ * profile (two limbs of a fold face apart; limbs paired across the anti-hinge cancel). Pole
+ * axes rather than facing normals decide what is contiguous, so that a steep reading with its
+ * dip recorded on the other side of vertical stays with its limb.
+ */
+function splitLimbs(angles: readonly number[], facing: readonly number[]): number[] {
+  const TWO_PI = 2 * Math.PI;
+  const order = angles.map((t, i) => i).filter((i) => !Number.isNaN(angles[i]));
+  const none = angles.map(() => -1);
+  if (order.length === 0) return none;
+  // Doubled angles in [0, 2π), and the facing normals as unit vectors, computed once.
+  const doubled = new Float64Array(angles.length);
+  const facingCos = new Float64Array(angles.length);
+  const facingSin = new Float64Array(angles.length);
+  for (const i of order) {
+    doubled[i] = 2 * angles[i] - TWO_PI * Math.floor((2 * angles[i]) / TWO_PI);
+    facingCos[i] = Math.cos(facing[i]);
+    facingSin[i] = Math.sin(facing[i]);
+  }
+  order.sort((i, j) => doubled[i] - doubled[j] || i - j);
+  const m = order.length;
+  const width = new Float64Array(m); // width[k]: the gap after order[k]
+  let widest = 0;
+  for (let k = 0; k < m; k++) {
+    width[k] = (k + 1 < m ? doubled[order[k + 1]] : doubled[order[0]] + TWO_PI) - doubled[order[k]];
+    if (width[k] > widest) widest = width[k];
+  }
+  const candidates: number[] = [];
+  for (let k = 0; k < m; k++) if (width[k] >= ANTI_HINGE_GAP_SHARE * widest) candidates.push(k);
+  candidates.sort((a, b) => width[b] - width[a] || a - b);
+
+  let best = none;
+  let bestScore = -1;
+  for (const k of candidates.slice(0, ANTI_HINGE_CANDIDATES)) {
+    const side = splitUnrolled(order, (k + 1) % m, doubled, angles.length);
+    let c0 = 0, s0 = 0, c1 = 0, s1 = 0;
+    for (const i of order) {
+      if (side[i] === 0) { c0 += facingCos[i]; s0 += facingSin[i]; } else { c1 += facingCos[i]; s1 += facingSin[i]; }
+    }
+    const score = Math.hypot(c0, s0) + Math.hypot(c1, s1);
+    if (score > bestScore + 1e-9 * Math.max(1, bestScore)) {
+      bestScore = score;
+      best = side;
+    }
+  }
+  return best;
+}
+
+/**
+ * Two-means on the doubled angles (sorted in `order`) unrolled from order[first]: side 0 before
+ * the split of least summed squares, side 1 after it, -1 for angles not in `order`.
+ */
+function splitUnrolled(order: readonly number[], first: number, doubled: Float64Array, count: number): number[] {
+  const TWO_PI = 2 * Math.PI;
+  const m = order.length;
+  const base = doubled[order[first]];
+  const sum = new Float64Array(m + 1), sq = new Float64Array(m + 1);
+  for (let k = 0; k < m; k++) {
+    const d = doubled[order[(first + k) % m]];
+    const x = d - base + (d < base ? TWO_PI : 0);
+    sum[k + 1] = sum[k] + x;
+    sq[k + 1] = sq[k] + x * x;
+  }
+  const sse = (a: number, b: number): number => sq[b] - sq[a] - (sum[b] - sum[a]) ** 2 / (b - a);
+  let cut = m; // one point: everything on limb 0
+  let bestSse = Infinity;
+  for (let k = 1; k < m; k++) {
+    const e = sse(0, k) + sse(k, m);
+    if (k === 1 || e < bestSse - 1e-12 * Math.max(1, bestSse)) {
+      bestSse = e;
+      cut = k;
+    }
+  }
+  const side = new Array<number>(count).fill(-1);
+  for (let k = 0; k < m; k++) side[order[(first + k) % m]] = k < cut ? 0 : 1;
+  return side;
 }
 
 function reject(v: Vec3, a: Vec3): Vec3 {

@@ -29,7 +29,8 @@ describe('net panel and command line agree', () => {
         d.foldlens.selectWithin(ring.slice(0, -1));
         const deadline = Date.now() + 60_000;
         while (document.body.dataset.analysisReady === before && Date.now() < deadline) await new Promise((r) => setTimeout(r, 100));
-        return JSON.parse(JSON.stringify((document.querySelector('foldlens-net') as unknown as { analysis: unknown }).analysis));
+        const net = document.querySelector('foldlens-net') as unknown as { analysis: unknown; description: unknown };
+        return JSON.parse(JSON.stringify({ ...(net.analysis as object), description: net.description }));
       }, domain.polygon);
 
       const area = JSON.stringify({ type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [domain.polygon] } });
@@ -47,9 +48,16 @@ describe('net panel and command line agree', () => {
       // (degrees or fractions), far below anything shown or exported with meaning.
       expect(cli.n).toBe(panel.n);
       expect(cli.lines.n).toBe(panel.lines.n);
-      for (const key of ['axis', 'girdle', 'eigenvalues', 'eigenvectors', 'woodcock', 'vollmer', 'cone95', 'lines']) {
+      for (const key of ['axis', 'girdle', 'eigenvalues', 'eigenvectors', 'woodcock', 'vollmer', 'cylindricity', 'cone95', 'lines']) {
         expectDeepClose(cli[key], panel[key], 1e-9, key);
       }
+      // The fold description (limb maxima from modes, interlimb angle, limb bisector) is the same too.
+      expect(cli.description.ok).toBe(true);
+      expect(panel.description.ok).toBe(true);
+      for (const key of ['interlimbAngle', 'interlimbAngleOfMeans', 'limbs', 'axialPlane', 'classes']) {
+        expectDeepClose(cli.description[key], panel.description[key], 1e-9, `description.${key}`);
+      }
+      expect(cli.warnings.map((w: { code: string }) => w.code)).toEqual(panel.warnings.map((w: { code: string }) => w.code));
       // The beta axis leaves out pairs of planes closer than a fixed angle; a last-place difference
       // can move one pair of thousands across that line, which moves beta by about 0.001°.
       expectDeepClose(cli.beta, panel.beta, 0.01, 'beta');

@@ -20,7 +20,7 @@ import { expectClose } from '../helpers/tolerance';
  */
 
 interface CaseInfo { n: number; axis: Line | null; poleIds: number[]; lineIds: number[]; updateMs: number; paintMs: number }
-type CaseName = 'fold' | 'two' | 'parallel' | 'big' | 'empty';
+type CaseName = 'fold' | 'pooled' | 'two' | 'parallel' | 'big' | 'empty';
 
 const TRUE_AXIS: Line = { trend: 40, plunge: 25 }; // the axis the page builds its fold about
 const XSS_LABEL = '<img src=x onerror=alert(1)>'; // part of the page's selection label
@@ -212,6 +212,27 @@ describe('<foldlens-net> net panel in a browser', () => {
     const at = await markerAt(page, 'highlight');
     expectClose(at!.x, frame.cx + frame.r * p.x, 0.05, 'highlight x');
     expectClose(at!.y, frame.cy - frame.r * p.y, 0.05, 'highlight y');
+  });
+
+  it('load("pooled") of two folds with axes 22.6° apart shows the girdle fit and the poor-girdle-fit message; load("fold") shows neither message', async () => {
+    const girdleFit = () => page.evaluate(() => document.querySelector('foldlens-net')!.shadowRoot!.querySelector('dd[data-key="girdleFit"]')!.textContent ?? '');
+    await load(page, 'fold');
+    // One fold with 2° scatter off its girdle: misfit about 2° (derived: RMS of the scatter).
+    const single = /(\d+\.\d)° RMS, cylindricity (0\.\d{3})/.exec(await girdleFit());
+    expect(single, await girdleFit()).not.toBeNull();
+    expect(Number(single![1])).toBeLessThan(3);
+    expect((await messages(page)).some((m) => m.includes('root mean square'))).toBe(false);
+    await load(page, 'pooled');
+    const pooled = /(\d+\.\d)° RMS, cylindricity (0\.\d{3})/.exec(await girdleFit());
+    expect(pooled, await girdleFit()).not.toBeNull();
+    // Two girdles 22.6° apart: with poles spread evenly over both the misfit would be
+    // asin(sin 11.3°/√2) = 8.0° plus the scatter (derived in cylindricity.ts); limbs lying near where
+    // the girdles cross give less, but these limbs do not, so it stays above the 6° limit.
+    expect(Number(pooled![1])).toBeGreaterThan(6);
+    const msg = (await messages(page)).find((m) => m.includes('root mean square'));
+    expect(msg).toContain(`${pooled![1]}° (root mean square) from the best-fit great circle`);
+    expect(msg).toMatch(/pool domains with different axes/);
+    expectNoBadNumbers(await shadowText(page));
   });
 
   it('load("two") says fewer than 3 planes, shows the cone as a dash with its reason, and no NaN', async () => {

@@ -228,6 +228,19 @@ describe('runCli analyze', () => {
     expect(JSON.parse(r.out).n).toBe(0);
     expect(r.err).toContain('no usable plane to analyse');
   });
+
+  it('runCli analyze of the whole Korvane sample (two domains with axes 24.9° apart) warns poor-girdle-fit and prints the girdle fit and the fold description', async () => {
+    const r = await run(['analyze', join('sample-maps', 'korvane', 'stations.csv'), '--bootstrap', '50']);
+    expect(r.code).toBe(1); // the sample's planted bad rows, as documented
+    expect(r.out).toMatch(/^Girdle fit: poles \d+\.\d° \(RMS\) from the girdle, cylindricity S2\/\(S2\+S3\) = 0\.\d{3}$/m);
+    expect(r.out).toMatch(/^Warning: The poles scatter \d+\.\d° \(root mean square\) from the best-fit great circle/m);
+    expect(r.out).toMatch(/^Fold: .*interlimb angle \d+°\. Limb maxima/m);
+    const j = JSON.parse((await run(['analyze', join('sample-maps', 'korvane', 'stations.csv'), '--json', '--bootstrap', '0'])).out);
+    expect(j.cylindricity.misfit).toBeGreaterThan(6);
+    expect(j.warnings.map((w: { code: string }) => w.code)).toContain('poor-girdle-fit');
+    expect(j.description.ok).toBe(true);
+    expect(j.description.limbs.map((l: { estimate: string }) => l.estimate)).toEqual(['mode', 'mode']);
+  });
 });
 
 describe('runCli usage and file errors (exit 2)', () => {

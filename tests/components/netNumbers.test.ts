@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { levelsText, netDisplayRows, netFields, NO_ANALYSIS, type NetDisplayRow, type NetField } from '../../src/components/net/netNumbers';
+import { numbersToCsv, numbersToJson } from '../../src/components/net/exportNumbers';
 import { analyzeFold, analyzeFoldPoles } from '../../src/core/foldAnalysis';
 import { describeFold } from '../../src/core/foldDescription';
 import { kambGrid } from '../../src/core/kamb';
@@ -125,6 +126,42 @@ describe('netDisplayRows and netFields', () => {
       }),
       { numRuns: 150 },
     );
+  });
+
+  it('netDisplayRows and netFields show the girdle fit, and numbersToCsv / numbersToJson carry it with the poor-girdle-fit warning for two pooled folds', () => {
+    // Two girdles whose axes (000/00 and 030/00) are 30° apart, poles every 10° around each:
+    // T = I/2 - (aaᵀ + bbᵀ)/4 has least eigenvalue sin²(15°)/2 (derived), so the misfit is
+    // asin(sin 15°/√2) = 10.54°, above the 6° limit.
+    const girdle = (trend: number): PlaneMeasurement[] => Array.from({ length: 18 }, (_, k) => ({ dipDirection: trend + 90 + (k < 9 ? 0 : 180), dip: (k % 9) * 10 + 5 }));
+    const planes = [...girdle(0), ...girdle(30)];
+    const analysis = analyzeFold({ planes }, { bootstrap: 0 });
+    const misfit = Math.asin(Math.sin((15 * Math.PI) / 180) / Math.SQRT2) * (180 / Math.PI);
+    expectClose(analysis.cylindricity!.misfit, misfit, 1e-6, 'misfit');
+    const rows = netDisplayRows({ analysis });
+    expect(row(rows, 'girdleFit').text).toBe(`${misfit.toFixed(1)}° RMS, cylindricity ${analysis.cylindricity!.cylindricity.toFixed(3)}`);
+    const fields = netFields({ analysis });
+    expectClose(field(fields, 'girdle_misfit').value as number, misfit, 1e-6, 'girdle_misfit');
+    expect(field(fields, 'cylindricity').value).toBeCloseTo(analysis.cylindricity!.cylindricity, 12);
+    const meta = { selection: 'Two pooled folds', net: 'equal-area' as const, date: '2025-01-01', method: analysis.method };
+    const csv = numbersToCsv(fields, analysis.warnings, meta);
+    expect(csv).toMatch(/\r\ngirdle_misfit,RMS distance of the poles from the girdle,10\.5\d*,deg,\r\n/);
+    expect(csv).toMatch(/warning_\d+,Warning \(poor-girdle-fit\),"?The poles scatter 10\.5° \(root mean square\)/);
+    const json = JSON.parse(numbersToJson(fields, analysis.warnings, meta));
+    expectClose(json.fields.girdle_misfit.value, misfit, 1e-6, 'JSON girdle_misfit');
+    expect(json.warnings.map((w: { code: string }) => w.code)).toContain('poor-girdle-fit');
+  });
+
+  it('netFields({analysis, description}) exports the interlimb angle from limb maxima and, for comparison, from limb means', () => {
+    // Limbs of 6 planes each at exactly 40° either way plus one 30° reading each (a rounded hinge):
+    // the modes stay at 40° (interlimb 100°, derived), the means move inward.
+    const planes: PlaneMeasurement[] = [...Array(6).fill({ dipDirection: 90, dip: 40 }), ...Array(6).fill({ dipDirection: 270, dip: 40 }), { dipDirection: 90, dip: 30 }, { dipDirection: 270, dip: 30 }];
+    const description = describeFold(planes);
+    const fields = netFields({ analysis: analyzeFold({ planes }, { bootstrap: 0 }), description });
+    expectClose(field(fields, 'interlimb_angle').value as number, 100, 0.5, 'interlimb angle from modes');
+    expect(field(fields, 'interlimb_angle_limb_means').value as number).toBeGreaterThan(101);
+    expect(field(fields, 'limb1_estimate').value).toBe('mode');
+    expect(field(fields, 'limb_mode_bandwidth').value).toBe(4);
+    expect(field(fields, 'axial_plane_dip').label).toBe('Axial plane (limb bisector) dip');
   });
 
   const levelRows = [

@@ -8,6 +8,7 @@
  * or a dash (rows), always with a reason.
  */
 import type { FoldAnalysis } from '../../core/foldAnalysis';
+import { CYLINDRICAL_MISFIT } from '../../core/cylindricity';
 import type { FoldDescription, FoldDescriptionFailure } from '../../core/foldDescription';
 import type { DensityGrid } from '../../core/density';
 import type { Line, Plane } from '../../core/types';
@@ -88,6 +89,8 @@ export function netFields(input: NetNumbersInput): NetField[] {
   num('cone95', '95% cone about the axis', a?.cone95, 'deg', r.cone);
   line('beta', 'Beta axis', a?.beta, r.beta);
   plane('girdle', 'Girdle', a?.girdle, r.axis);
+  num('girdle_misfit', 'RMS distance of the poles from the girdle', a?.cylindricity?.misfit, 'deg', r.axis);
+  num('cylindricity', 'Cylindricity S2/(S2+S3)', a?.cylindricity?.cylindricity, '', r.axis);
   (['S1', 'S2', 'S3'] as const).forEach((s, i) => num(s.toLowerCase(), `Eigenvalue ${s}`, a?.eigenvalues?.[i], '', r.eigen));
   num('woodcock_k', 'Woodcock K', a?.woodcock?.K, '', r.K);
   num('woodcock_c', 'Woodcock C', a?.woodcock?.C, '', r.C);
@@ -101,13 +104,17 @@ export function netFields(input: NetNumbersInput): NetField[] {
   num('lines_kappa', 'Lines kappa', a?.lines?.kappa, '', r.alpha95);
   num('lines_angle_to_axis', 'Lines mean to pi axis', a?.lines?.angleToAxis, 'deg', r.angleToAxis);
   const d = input.description?.ok ? input.description : null;
-  num('interlimb_angle', 'Interlimb angle', d?.interlimbAngle, 'deg', r.description);
+  num('interlimb_angle', 'Interlimb angle (between limb maxima)', d?.interlimbAngle, 'deg', r.description);
+  num('interlimb_angle_limb_means', 'Interlimb angle between limb mean poles (for comparison)', d?.interlimbAngleOfMeans, 'deg', r.description);
+  num('limb_mode_bandwidth', 'Kernel bandwidth of the limb maxima', d?.bandwidth, 'deg', r.description);
   word('fleuty_interlimb', 'Interlimb class (Fleuty 1964)', d?.classes.interlimb, r.description);
   word('fleuty_hinge', 'Hinge plunge class (Fleuty 1964)', d?.classes.hingePlunge, r.description);
   word('fleuty_axial_surface', 'Axial surface class (Fleuty 1964)', d?.classes.axialSurface, r.axialPlane);
-  plane('axial_plane', 'Axial plane', d?.axialPlane, r.axialPlane);
+  plane('axial_plane', 'Axial plane (limb bisector)', d?.axialPlane, r.axialPlane);
   plane('limb1', 'Limb 1 maximum', d?.limbs[0].plane, r.description);
+  word('limb1_estimate', 'Limb 1 maximum from', d?.limbs[0].estimate, r.description);
   plane('limb2', 'Limb 2 maximum', d?.limbs[1].plane, r.description);
+  word('limb2_estimate', 'Limb 2 maximum from', d?.limbs[1].estimate, r.description);
   const g = input.density ?? null;
   word('density_method', 'Density method', g ? g.method : null, r.density);
   num('density_counting_angle', 'Density counting angle', g?.countingAngle, 'deg', r.density);
@@ -131,6 +138,7 @@ export function netDisplayRows(input: NetNumbersInput): NetDisplayRow[] {
   row('cone95', '95% cone', 'bootstrap cone of confidence about the axis', formatAngle(a?.cone95, r.cone));
   row('beta', 'β axis', 'trend/plunge of the mean intersection of pairs of planes', formatLine(a?.beta, r.beta));
   row('girdle', 'Girdle', 'dip direction/dip of the best-fit girdle plane', formatPlane(a?.girdle, r.axis));
+  row('girdleFit', 'Girdle fit', `root-mean-square distance of the poles from the girdle, and cylindricity S2/(S2+S3) (1 = all on one great circle); above ${CYLINDRICAL_MISFIT}° the poles do not share one fold axis`, girdleFitText(a, r));
   const ev = a?.eigenvalues;
   row('eigenvalues', 'S1 · S2 · S3', 'eigenvalues of the orientation tensor of the poles', joinFormatted([0, 1, 2].map((i) => formatNumber(ev?.[i], 3, '', r.eigen)), ' · '));
   row('woodcock', 'Woodcock K, C', 'shape K (below 1 girdle, above 1 cluster) and strength C', woodcockText(a, r));
@@ -145,10 +153,10 @@ export function netDisplayRows(input: NetNumbersInput): NetDisplayRow[] {
   row('linesToAxis', 'Lines to π axis', 'angle between the lines mean and the pi axis', formatAngle(ls?.angleToAxis, r.angleToAxis));
   const d = input.description?.ok ? input.description : null;
   const interlimb = formatAngle(d?.interlimbAngle, r.description, 0);
-  row('interlimb', 'Interlimb angle', 'angle between the limbs in the profile plane (Fleuty 1964 class)', interlimb.reason === null ? { text: `${interlimb.text} (${d?.classes.interlimb})`, reason: null } : interlimb);
+  row('interlimb', 'Interlimb angle', 'angle between the limb maxima in the profile plane (Fleuty 1964 class); the limb maxima are the densest pole directions of each limb along the girdle, which a rounded hinge does not pull inward', interlimb.reason === null ? { text: `${interlimb.text} (${d?.classes.interlimb})`, reason: null } : interlimb);
   row('fleuty', 'Fleuty class', 'hinge plunge and axial surface classes (Fleuty 1964)', d ? { text: [d.classes.hingePlunge, d.classes.axialSurface ?? 'axial surface not defined', d.classes.interlimb].join(', '), reason: null } : { text: DASH, reason: r.description });
   row('axialPlane', 'Axial plane (limb bisector)', 'dip direction/dip of the plane through the axis bisecting the limb maxima; an inclined or asymmetric fold\'s axial surface can differ — compare with axial-planar cleavage', formatPlane(d?.axialPlane, r.axialPlane));
-  row('limbs', 'Limb maxima (planes)', 'dip direction/dip of the plane of each limb\'s mean pole', joinFormatted([formatPlane(d?.limbs[0].plane, r.description), formatPlane(d?.limbs[1].plane, r.description)], ' · '));
+  row('limbs', 'Limb maxima (planes)', 'dip direction/dip of the plane of each limb\'s densest pole direction (kernel density mode along the girdle; the mean pole for a limb of fewer than 5 planes)', joinFormatted([formatPlane(d?.limbs[0].plane, r.description), formatPlane(d?.limbs[1].plane, r.description)], ' · '));
   row('density', 'Contours', 'density method and contour levels in multiples of sigma', densityText(input.density ?? null, r.density));
   return rows;
 }
@@ -221,6 +229,13 @@ function woodcockText(a: FoldAnalysis | null, r: Reasons): Formatted {
   if (K.reason !== null && C.reason !== null) return K.reason === C.reason ? K : { text: DASH, reason: `${K.reason}; ${C.reason}` };
   // One of the two is a number: show it and say why the other is not.
   return { text: `${K.reason === null ? K.text : `${DASH} (${K.reason})`}, ${C.reason === null ? C.text : `${DASH} (${C.reason})`}`, reason: null };
+}
+
+function girdleFitText(a: FoldAnalysis | null, r: Reasons): Formatted {
+  const misfit = formatAngle(a?.cylindricity?.misfit, r.axis);
+  const ratio = formatNumber(a?.cylindricity?.cylindricity, 3, '', r.axis);
+  if (misfit.reason !== null || ratio.reason !== null) return misfit.reason !== null ? misfit : ratio;
+  return { text: `${misfit.text} RMS, cylindricity ${ratio.text}`, reason: null };
 }
 
 function densityText(g: DensityGrid | null, reason: string): Formatted {

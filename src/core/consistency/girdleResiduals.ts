@@ -1,7 +1,7 @@
 import { checkAxis } from '../downPlunge';
 import { assertPlanes, fitGirdleToArray } from '../girdle';
 import { asinClamped, toDegrees } from '../math';
-import { readFabric, vollmerIndices, woodcockIndices, type FabricReading, type VollmerIndices } from '../shapeIndices';
+import { cylindricityOf, type Cylindricity } from '../cylindricity';
 import type { Line, Plane } from '../types';
 import { lineToVector, planeNormal } from '../vectors';
 
@@ -25,18 +25,8 @@ import { lineToVector, planeNormal } from '../vectors';
  * girdle is fitted to all poles, the flagged ones set aside, the girdle refitted to the rest, and
  * the distances and flags taken once more against the refitted girdle (one reweighting step).
  *
- * Cylindricity. With S1 >= S2 >= S3 the eigenvalues of the poles' orientation tensor (sum 1),
- * Si = mean of (p·ei)², so (derived):
- * - S3 = mean sin²(d): the spread of the poles off the girdle; asin(√S3) is the RMS (in sine)
- *   distance from the girdle, in degrees: `misfit`.
- * - 1 - S1 = S2 + S3 is the spread of the poles away from their mean pole; S2 of it lies along
- *   the girdle and S3 across it. `cylindricity` = S2/(S2 + S3) = 1 - S3/(S2 + S3) is the share of
- *   the spread that lies along the girdle: 1 for poles exactly on a great circle, 0.5 when the
- *   spread has no preferred great circle (a round cluster or a uniform spread).
- * Woodcock (1977) K, C and Vollmer (1990) P, G, R come from shapeIndices.ts. For a conical fold,
- * whose poles lie on a small circle at 90° - δ from the cone axis, every pole lies δ from the
- * best girdle and the misfit is δ (derived): a misfit well above the reading precision is the
- * sign of a non-cylindrical fold (or of several domains pooled).
+ * Cylindricity (misfit = RMS distance from the girdle, cylindricity = S2/(S2 + S3)) is computed in
+ * core/cylindricity.ts, which the fold analysis shares; it is re-exported here.
  */
 
 /** A planar reading with an optional id (station id) for messages. */
@@ -62,39 +52,7 @@ export interface GirdleResidualOptions {
  */
 export const GIRDLE_RESIDUAL_DEFAULTS = Object.freeze({ madFactor: 3.5, minAngle: 5, madToSigma: 1.4826 });
 
-/**
- * Misfit (degrees) up to which poles count as on one great circle; about twice or thrice the
- * reading precision (Foldlens convention).
- * @example cylindricityOf(poles).misfit <= CYLINDRICAL_MISFIT
- */
-export const CYLINDRICAL_MISFIT = 6;
-/**
- * Misfit (degrees) up to which a fold counts as nearly cylindrical (Foldlens convention).
- * @example cylindricityOf(poles).misfit <= NEARLY_CYLINDRICAL_MISFIT
- */
-export const NEARLY_CYLINDRICAL_MISFIT = 10;
-/**
- * Below this cylindricity the poles spread so little along the girdle that the girdle is weakly
- * defined (Foldlens convention).
- * @example cylindricityOf(poles).cylindricity < WEAK_GIRDLE_CYLINDRICITY
- */
-export const WEAK_GIRDLE_CYLINDRICITY = 0.9;
-
-/** How cylindrical a set of poles is. */
-export interface Cylindricity {
-  readonly n: number;
-  readonly eigenvalues: readonly [number, number, number];
-  /** S2/(S2 + S3), 0.5..1. */
-  readonly cylindricity: number;
-  /** asin(√S3) in degrees: RMS distance of the poles from the girdle. */
-  readonly misfit: number;
-  readonly woodcock: { readonly K: number | null; readonly C: number | null };
-  readonly vollmer: VollmerIndices;
-  readonly fabric: FabricReading;
-  readonly shape: 'cylindrical' | 'cylindrical-weak-girdle' | 'nearly-cylindrical' | 'not-cylindrical';
-  /** In words. */
-  readonly reading: string;
-}
+export { CYLINDRICAL_MISFIT, NEARLY_CYLINDRICAL_MISFIT, WEAK_GIRDLE_CYLINDRICITY, cylindricityOf, type Cylindricity } from '../cylindricity';
 
 /** One reading against the girdle. */
 export interface PlaneResidual {
@@ -206,32 +164,6 @@ export function girdleResiduals(planes: readonly MeasuredPlane[], options: Girdl
     cylindricityWithoutOutliers: clean,
     reading: residualReading(n, judged, rule, madFactor, minAngle, cylindricity, clean),
   };
-}
-
-/**
- * Cylindricity figures of interleaved unit poles (see the module comment). Throws on fewer than one pole.
- * @example cylindricityOf(poles).misfit // RMS distance from the girdle in degrees
- */
-export function cylindricityOf(poles: ArrayLike<number>): Cylindricity {
-  const fit = fitGirdleToArray(poles);
-  const [s1, s2, s3] = fit.eigenvalues;
-  const spread = s2 + s3;
-  const cylindricity = spread > 0 ? s2 / spread : 0.5;
-  const misfit = toDegrees(asinClamped(Math.sqrt(Math.max(0, s3))));
-  const wood = woodcockIndices(fit.eigenvalues);
-  const fabric = readFabric(fit.eigenvalues);
-  const shape: Cylindricity['shape'] =
-    misfit <= CYLINDRICAL_MISFIT ? (cylindricity >= WEAK_GIRDLE_CYLINDRICITY ? 'cylindrical' : 'cylindrical-weak-girdle') : misfit <= NEARLY_CYLINDRICAL_MISFIT ? 'nearly-cylindrical' : 'not-cylindrical';
-  const figures = `cylindricity S2/(S2+S3) = ${cylindricity.toFixed(3)}, RMS distance from the girdle ${misfit.toFixed(1)}°`;
-  const reading =
-    shape === 'cylindrical'
-      ? `Cylindrical: the poles lie close to one great circle (${figures}).`
-      : shape === 'cylindrical-weak-girdle'
-        ? `The poles lie close to one great circle but spread little along it (${figures}), so the girdle, and the axis, are weakly defined: the fold is gentle or only one limb was measured.`
-        : shape === 'nearly-cylindrical'
-          ? `Nearly cylindrical: the poles scatter somewhat off one great circle (${figures}); look for a curved hinge or two domains pooled.`
-          : `Not cylindrical: the poles lie well off any one great circle (${figures}). The fold may be conical or refolded, or the area may hold more than one domain.`;
-  return { n: fit.n, eigenvalues: fit.eigenvalues, cylindricity, misfit, woodcock: { K: wood.K, C: wood.C }, vollmer: vollmerIndices(fit.eigenvalues), fabric, shape, reading };
 }
 
 interface Judged {

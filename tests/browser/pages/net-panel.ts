@@ -88,12 +88,15 @@ document.addEventListener('foldlens-net-options', (e) => {
 const SELECTION = 'North ridge, Tarn Hollow — station <img src=x onerror=alert(1)>';
 
 /** Loads a case into the panel and waits until it is drawn; returns what a test needs. */
-async function load(name: 'fold' | 'two' | 'parallel' | 'big' | 'empty') {
+async function load(name: 'fold' | 'pooled' | 'two' | 'parallel' | 'big' | 'empty') {
   let poles: Float64Array;
   let lines: NetLine[] = [];
   if (name === 'fold') {
     poles = cylindricalFold(TRUE_AXIS, 240, 7);
     lines = hingeLines(TRUE_AXIS, 8, 11, 1000);
+  } else if (name === 'pooled') {
+    // Two folds pooled, axes 040/25 and 065/25 (22.6° apart): the poles share no one girdle.
+    poles = new Float64Array([...cylindricalFold(TRUE_AXIS, 240, 7), ...cylindricalFold({ trend: 65, plunge: 25 }, 240, 8)]);
   } else if (name === 'two') {
     poles = polesOfPlanes([{ dipDirection: 120, dip: 40 }, { dipDirection: 240, dip: 40 }]);
   } else if (name === 'parallel') {
