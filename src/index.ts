@@ -15,7 +15,7 @@ export * from './core/index';
 // configureMapLibre (src/map/maplibreSetup.ts) stays out of the package: its `?url` import works only in
 // a Vite production build and breaks Vite's dependency pre-bundling and other bundlers. MapLibre is the
 // host's peer dependency, so the host sets its worker URL (README, "Embedding Foldlens in your map").
-export { Foldlens, attachFoldlens, type SelectionChangeDetail } from './map/foldlens';
+export { Foldlens, attachFoldlens, type SelectionChangeDetail, type AxisComputedDetail, type DomainSavedDetail, type FoldlensOptions } from './map/foldlens';
 export { FoldlensOverlay, defaultOverlayOptions, type FoldlensOverlayOptions, type StationEventDetail } from './map/foldlensOverlay';
 export { SelectionDrawer, type SelectionToolName, type ShapeEventDetail } from './map/selectionDrawer';
 export { symbolFor, KIND_COLORS, KIND_LABELS, type SymbolChoice } from './map/symbolCatalog';
@@ -33,7 +33,13 @@ export { FoldlensStationCard } from './components/foldlens-station-card';
 export { FoldlensToolbar } from './components/foldlens-toolbar';
 export { FoldlensNet } from './components/foldlens-net';
 export { FoldlensDomains } from './components/foldlens-domains';
+export { FoldlensSelections } from './components/foldlens-selections';
+export { namedSelection, resolveSelection, selectionAppliesTo } from './io/namedSelection';
 export { FoldlensProfile } from './components/foldlens-profile';
+export { FoldlensAxisPicker } from './components/foldlens-axis-picker';
+export { resolveAxisChoice, AXIS_SOURCES, type AxisChoice, type AxisChoiceInput, type AxisSource } from './components/profile/axisChoice';
+export { SectionLineDrawer, defaultSectionLineDrawerOptions, type SectionLineDrawerOptions, type SectionLineEventDetail } from './map/sectionLineDrawer';
+export { swathOutline } from './map/sectionSwath';
 export { FoldlensImport } from './components/foldlens-import';
 export { FoldlensTable } from './components/foldlens-table';
 export { DomainLayer, type DomainRingDetail } from './map/domainLayer';
@@ -46,3 +52,7 @@ export { localAxisField } from './core/consistency/localAxisField';
 export { partitionAxisField } from './core/consistency/domainBoundaries';
 export { buildConsistencyReport } from './core/consistency/report';
 export { consistencyReportHtml } from './core/consistency/reportHtml';
+export { checkClosures, findClosures } from './core/consistency/closures';
+export { FoldlensConsistency } from './components/foldlens-consistency';
+export { AxisFieldLayer, axisFieldFeatures } from './map/axisFieldLayer';
+export { ConsistencyFlagsLayer, flagFeatures } from './map/consistencyFlagsLayer';

@@ -13,10 +13,10 @@ import { KIND_LABELS } from '../map/symbolCatalog';
 import { buildStyle, bounds, truth, contacts, faults, demUrl } from '../../sample-maps/korvane/index';
 import '../components/foldlens-profile';
 import type { FoldlensProfile } from '../components/foldlens-profile';
-import { buildProfileData } from '../map/profileData';
+import { setUpProfileTools } from './profileControls';
+import { setUpConsistency } from './consistencyControls';
 import { readDem } from '../io/dem';
 import type { Dem } from '../io/demSampler';
-import type { Line } from '../core/types';
 import { loadSampleStations } from './sampleStations';
 import { setUpOffline } from './offline';
 import '../components/foldlens-import';
@@ -33,9 +33,13 @@ import '../components/foldlens-domains';
 import { simplify, polygon as turfPolygon } from '@turf/turf';
 import { DomainLayer, type DomainRingDetail } from '../map/domainLayer';
 import { newDomainId, nextDomainName, type Domain } from '../core/domain';
+import '../components/foldlens-selections';
+import type { ProjectSelection, SelectionShape } from '../io/projectFile';
+import { namedSelection, newSelectionId, nextSelectionName, resolveSelection, selectionAppliesTo } from '../io/namedSelection';
+import type { ShapeEventDetail } from '../map/selectionDrawer';
 
 configureMapLibre();
-const saveForOffline = setUpOffline(document.querySelector('#offline-status') as HTMLElement, () => [getWorkerUrl(), analysis.workerScriptUrl ?? '']);
+const saveForOffline = setUpOffline(document.querySelector('#offline-status') as HTMLElement, () => [getWorkerUrl(), analysis.workerScriptUrl ?? '', consistency.workerScriptUrl() ?? '']);
 
 const $ = <T extends Element>(selector: string) => document.querySelector(selector) as T;
 const toolbar = $<HTMLElementTagNameMap['foldlens-toolbar']>('#toolbar');
@@ -56,7 +60,7 @@ const map = new MapLibreMap({
 map.addControl(new NavigationControl({ visualizePitch: true }), 'top-left');
 map.addControl(new ScaleControl({ unit: 'metric' }), 'bottom-left');
 
-const foldlens = attachFoldlens(map);
+const foldlens = attachFoldlens(map, { analysis: false }); // the demo runs its own analysis, with density, for the net panel
 const domainLayer = new DomainLayer(map);
 let domains: Domain[] = [];
 const analysis = new AnalysisClient();
@@ -124,6 +128,7 @@ async function analyseSelection(indices: Int32Array, final: boolean): Promise<vo
   net.analysis = result.analysis;
   net.density = result.density;
   net.description = result.description;
+  profileTools.selectionAnalysed(indices, result.analysis);
   document.body.dataset.analysisReady = String(Date.now());
 }
 
@@ -141,7 +146,10 @@ function inspect(station: Station | null): void {
   card.netPosition = line ? projectLine(line, netKind) : null;
 }
 
-foldlens.addEventListener('stationclick', (e) => inspect((e as CustomEvent<StationEventDetail>).detail.station));
+foldlens.addEventListener('stationclick', (e) => {
+  if (profileTools.drawingSection) return; // a click on a station while drawing a section line is a vertex
+  inspect((e as CustomEvent<StationEventDetail>).detail.station);
+});
 foldlens.addEventListener('stationhover', (e) => {
   net.highlight = (e as CustomEvent<StationEventDetail>).detail.index;
 });
@@ -180,6 +188,7 @@ toolbar.addEventListener('foldlens-select-kind', (e) => foldlens.selectKinds([(e
 function setDomains(next: Domain[], save = true): Promise<void> {
   domains = next;
   domainLayer.setDomains(domains);
+  profileTools.setDomains(domains);
   domainsPanel.domains = domains;
   if (!save) return Promise.resolve();
   project = { ...project, domains: domains as unknown as FoldlensProject['domains'] };
@@ -255,9 +264,68 @@ domainLayer.addEventListener('domainringend', async (e) => {
   setDomains(domains.map((d) => (d.id === id ? updated : d)));
 });
 domainLayer.addEventListener('domainclick', (e) => {
-  if (foldlens.drawer.currentTool) return; // clicks while drawing belong to the drawing
+  if (foldlens.drawer.currentTool || profileTools.drawingSection) return; // clicks while drawing belong to the drawing
   const d = domains.find((x) => x.id === (e as CustomEvent<{ id: string }>).detail.id);
   if (d) foldlens.selectWithin(d.ring);
+});
+
+// ---- Named selections, saved with the project ------------------------------------------------
+
+const selectionsPanel = $<HTMLElementTagNameMap['foldlens-selections']>('#selections');
+// The tool of the shape being drawn, and of the current selection's outline (a new outline object
+// means a new shape; a cancelled gesture keeps the old one).
+let drawingTool: SelectionShape['tool'];
+let outlineTool: SelectionShape['tool'];
+let lastOutline: SelectionChangeDetail['shape'] = null;
+foldlens.drawer.addEventListener('shapestart', (e) => (drawingTool = (e as CustomEvent<ShapeEventDetail>).detail.tool));
+foldlens.addEventListener('selectionchange', (e) => {
+  const d = (e as CustomEvent<SelectionChangeDetail>).detail;
+  selectionsPanel.canSave = d.indices.length > 0;
+  if (!d.final) return;
+  if (d.shape !== lastOutline) outlineTool = d.shape ? drawingTool : undefined;
+  lastOutline = d.shape;
+  drawingTool = undefined;
+});
+
+/** Lists the saved selections that belong to the stations shown. */
+function showSelections(): void {
+  selectionsPanel.selections = project.selections.filter((s) => selectionAppliesTo(s, project.datasets.at(-1)?.id));
+}
+
+/** Keeps the selections with the project; resolves when the save has committed. */
+function setSelections(next: readonly ProjectSelection[]): Promise<void> {
+  project = { ...project, selections: next };
+  showSelections();
+  autosave.schedule(project);
+  return autosave.flush();
+}
+
+selectionsPanel.addEventListener('foldlens-selection-save', async (e) => {
+  const indices = foldlens.selectedIndices();
+  if (indices.length === 0) return;
+  const shape = foldlens.shape;
+  const name = (e as CustomEvent<{ name: string }>).detail.name || nextSelectionName(project.selections);
+  const record = namedSelection({ id: newSelectionId(), name, stations, indices, dataset: project.datasets.at(-1)?.id, shape: shape && { tool: outlineTool, ring: shape } });
+  await setSelections([...project.selections, record]);
+  selectionsPanel.status = `Saved “${name}”: ${indices.length} station${indices.length === 1 ? '' : 's'}.`;
+  document.body.dataset.selectionsSaved = String(project.selections.length);
+});
+selectionsPanel.addEventListener('foldlens-selection-apply', (e) => {
+  const s = project.selections.find((x) => x.id === (e as CustomEvent<{ id: string }>).detail.id);
+  if (!s) return;
+  const { indices, missing } = resolveSelection(s, stations);
+  drawingTool = s.shape?.tool;
+  if (indices) foldlens.selectIndices(indices, s.shape?.ring ?? null);
+  else if (s.shape) foldlens.selectWithin(s.shape.ring);
+  const n = foldlens.selectedIndices().length;
+  const gone = missing ? `; ${missing} of its stations ${missing === 1 ? 'is' : 'are'} no longer in the data` : '';
+  selectionsPanel.status = `Applied “${s.name}”: ${n} station${n === 1 ? '' : 's'} selected${gone}.`;
+});
+selectionsPanel.addEventListener('foldlens-selection-delete', (e) => {
+  const id = (e as CustomEvent<{ id: string }>).detail.id;
+  const s = project.selections.find((x) => x.id === id);
+  if (s) selectionsPanel.status = `Deleted “${s.name}”.`;
+  void setSelections(project.selections.filter((x) => x.id !== id)).then(() => (document.body.dataset.selectionsSaved = String(project.selections.length)));
 });
 
 // ---- The user's own data: import, table, autosaved project ------------------------------------
@@ -265,7 +333,8 @@ domainLayer.addEventListener('domainclick', (e) => {
 const importEl = $<HTMLElementTagNameMap['foldlens-import']>('#import');
 const table = $<HTMLElementTagNameMap['foldlens-table']>('#table');
 const store = openProjectStore();
-const autosave = new Autosave(store);
+// The save state is on <body> for tests and scripts that wait for the project to be stored.
+const autosave = new Autosave(store, { onState: (state) => (document.body.dataset.saveState = state) });
 let project: FoldlensProject = emptyProject('Field data');
 
 /** Puts a set of stations on the map and in every panel. */
@@ -286,11 +355,13 @@ function showProject(p: FoldlensProject): void {
   table.data = d;
   importEl.current = d && reportOf(d);
   if (d) showStations([...d.stations], `${d.name} — ${d.stations.length} rows (your data, saved in this browser)`);
+  showSelections();
 }
 
 function showSample(): void {
   table.data = null;
   showStations(loadSampleStations(), `${truth.district} — synthetic demo data`);
+  showSelections();
 }
 
 importEl.addEventListener('foldlens-import', (e) => {
@@ -332,6 +403,7 @@ map.on('load', async () => {
   if (saved && saved.project.datasets.length > 0) showProject(saved.project);
   else showSample();
   if (saved) project = saved.project;
+  showSelections();
   // Domains saved with the project (opaque in the file format; written only by this viewer).
   void setDomains((saved?.project.domains ?? []) as unknown as Domain[], false);
   map.once('idle', () => {
@@ -342,36 +414,48 @@ map.on('load', async () => {
 
 Object.assign(window, { foldlensDemo: { map, foldlens, get stations() { return stations; } } });
 
-// ---- Down-plunge profile of the selection or a domain --------------------------------------------
+// ---- Profiles and sections: axis picker, map lines, down-plunge profiles, section lines ----------
 
 const profileBox = $<HTMLDialogElement>('#profile-box');
 const profile = $<FoldlensProfile>('#profile');
-const profileButton = $<HTMLButtonElement>('#profile-button');
 $<HTMLButtonElement>('#profile-close').addEventListener('click', () => profileBox.close());
 let demLoad: Promise<Dem> | null = null;
 const sampleDem = (): Promise<Dem> => (demLoad ??= fetch(demUrl).then((r) => r.arrayBuffer()).then((b) => readDem(b, { source: 'dem.tif' })));
-
-async function openProfile(ring: ReadonlyArray<readonly [number, number]>, axis: Line, label: string): Promise<void> {
-  try {
-    profile.data = buildProfileData({ stations, contacts, faults, dem: await sampleDem(), axis, ring, label });
-    profile.label = label;
-    profileBox.show(); // not modal: the map stays live for hover linking
-  } catch (e) {
-    hint.hidden = false;
-    hint.textContent = `The profile could not be drawn: ${e instanceof Error ? e.message : String(e)}`;
-  }
-}
-profileButton.addEventListener('click', () => {
-  const axis = net.analysis?.axis;
-  const ring = foldlens.shape;
-  if (axis && ring) void openProfile(ring, axis, net.selectionLabel);
-});
-foldlens.addEventListener('selectionchange', (e) => {
-  profileButton.disabled = (e as CustomEvent<SelectionChangeDetail>).detail.shape === null;
+const profileTools = setUpProfileTools({
+  map,
+  foldlens,
+  profile,
+  profileBox,
+  stations: () => stations,
+  contacts,
+  faults,
+  dem: sampleDem,
+  panTool: () => {
+    foldlens.setTool(null);
+    toolbar.tool = 'pan';
+  },
 });
 foldlens.addEventListener('stationhover', (e) => (profile.highlight = (e as CustomEvent<StationEventDetail>).detail.index));
 profile.addEventListener('foldlens-profile-hover', (e) => foldlens.overlay.setHighlight((e as CustomEvent<{ index: number }>).detail.index));
 profile.addEventListener('foldlens-profile-pick', (e) => {
   const i = (e as CustomEvent<{ index: number }>).detail.index;
   if (i >= 0) inspect(stations[i]);
+});
+
+// ---- Consistency: local fold axis field, suggested domains, flags and the report ------------------
+
+const consistency = setUpConsistency({
+  map,
+  panel: $<HTMLElementTagNameMap['foldlens-consistency']>('#consistency'),
+  stations: () => stations,
+  domains: () => domains,
+  saveDomains: async (areas) => {
+    const made: Domain[] = [];
+    for (const a of areas) made.push(await domainFromRing(newDomainId(), a.name, a.ring));
+    await setDomains([...domains, ...made]);
+    document.body.dataset.domainsSaved = String(domains.length);
+  },
+  contacts,
+  dem: sampleDem,
+  datasetLabel: () => $<HTMLElement>('#dataset-label').textContent ?? '',
 });

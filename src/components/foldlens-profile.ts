@@ -348,7 +348,7 @@ export class FoldlensProfile extends LitElement {
           ${isSection
             ? html`<label><input type="checkbox" .checked=${show.topography} @change=${(e: Event) => this.setShow('topography', (e.target as HTMLInputElement).checked)} />Ground</label>`
             : nothing}
-          <label title=${isSection ? 'Vertical exaggeration of the section' : 'A down-plunge profile is always drawn at true scale'}>V.E.
+          <label title=${isSection ? 'Vertical exaggeration of the section: heights drawn this many times larger than distances (×1 is true scale)' : 'A down-plunge profile is always drawn at true scale'}>Vertical exaggeration
             <select aria-label="Vertical exaggeration" ?disabled=${!isSection} @change=${(e: Event) => this.setOption({ verticalExaggeration: Number((e.target as HTMLSelectElement).value) })}>
               ${PROFILE_EXAGGERATIONS.map((v) => html`<option value=${v} ?selected=${this.exaggeration === v}>${v === 1 ? '×1 (true scale)' : `×${v}`}</option>`)}
             </select>

@@ -274,7 +274,7 @@ export function buildProfileData(input: ProfileDataInput): ProfileData {
       swath,
       topographySpacing: spacing,
     };
-    if (outsideSwath > 0) notes.push(`${count(outsideSwath, 'station')} in the area lie farther than ${fmt(swath)} m from the section line and are not drawn.`);
+    if (outsideSwath > 0) notes.push(`${count(outsideSwath, 'station')}${ring ? ' in the area' : ''} lie farther than ${fmt(swath)} m from the section line and are not drawn.`);
     if (missedSection > 0) notes.push(`${count(missedSection, 'station')} within the swath project along the plunge past the ends of the section and are not drawn.`);
     if (verticesOffSection > 0) notes.push(`${count(verticesOffSection, 'linework vertex', 'linework vertices')} lie beyond the swath or project past the ends of the section and are not drawn.`);
   }

@@ -1,0 +1,273 @@
+/**
+ * Demo wiring of the "Profiles and sections" block: the axis picker, the choice of map lines to
+ * project, the down-plunge profile of the selection or of a domain, and the vertical section
+ * along a line drawn on the map with its swath. Every number comes from buildProfileData
+ * (src/map/profileData.ts); this file only connects the page's controls to it.
+ */
+import { length as turfLength, lineString } from '@turf/turf';
+import type { FeatureCollection } from 'geojson';
+import type { Map as MapLibreMap } from 'maplibre-gl';
+import type { Domain } from '../core/domain';
+import type { FoldAnalysis } from '../core/foldAnalysis';
+import { hingeMeanAxis } from '../core/hingeMean';
+import { readNumberField } from '../core/numberField';
+import type { LonLatPair } from '../core/sectionLineDraft';
+import type { Station } from '../core/station';
+import type { Line } from '../core/types';
+import type { Dem } from '../io/demSampler';
+import '../components/foldlens-axis-picker';
+import type { FoldlensProfile } from '../components/foldlens-profile';
+import type { AxisChoice } from '../components/profile/axisChoice';
+import { axisText, metresText } from '../components/profile/profileText';
+import type { Foldlens, SelectionChangeDetail } from '../map/foldlens';
+import { buildProfileData, DEFAULT_SWATH } from '../map/profileData';
+import { SectionLineDrawer } from '../map/sectionLineDrawer';
+
+/** What the block needs from the page. */
+export interface ProfileToolsDeps {
+  readonly map: MapLibreMap;
+  readonly foldlens: Foldlens;
+  readonly profile: FoldlensProfile;
+  readonly profileBox: HTMLDialogElement;
+  /** The stations shown now. */
+  readonly stations: () => readonly Station[];
+  /** The map's line layers that may be projected. */
+  readonly contacts: FeatureCollection;
+  readonly faults: FeatureCollection;
+  /** The terrain model (loaded once, on first use). */
+  readonly dem: () => Promise<Dem>;
+  /** Puts the selection tools back to panning (the section line takes the pointer). */
+  readonly panTool: () => void;
+}
+
+/** What the page asks of the block. */
+export interface ProfileTools {
+  /** Whether a section line is being drawn (map clicks belong to it). */
+  readonly drawingSection: boolean;
+  /** The selection's full analysis arrived (`indices` as given to the analysis). */
+  selectionAnalysed(indices: Int32Array, analysis: FoldAnalysis | null): void;
+  /** Saved domains changed. */
+  setDomains(domains: readonly Domain[]): void;
+}
+
+/** Largest swath half-width accepted, metres: wider is no longer a section of one fold train. */
+const MAX_SWATH = 20_000;
+
+type View =
+  | { readonly kind: 'area'; readonly ring: ReadonlyArray<readonly [number, number]>; readonly what: string }
+  | { readonly kind: 'section'; readonly line: readonly LonLatPair[] };
+
+const byId = <T extends HTMLElement>(id: string): T => {
+  const el = document.getElementById(id);
+  if (!el) throw new Error(`the demo page has no #${id}`);
+  return el as T;
+};
+
+/**
+ * Connects the block's controls (index.html, "Profiles and sections") to the map and the
+ * profile panel.
+ * @example const tools = setUpProfileTools({ map, foldlens, profile, profileBox, stations: () => stations, contacts, faults, dem, panTool });
+ */
+export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
+  const { map, foldlens, profile, profileBox } = deps;
+  const picker = byId<HTMLElementTagNameMap['foldlens-axis-picker']>('axis-picker');
+  const status = byId<HTMLElement>('profile-status');
+  const profileButton = byId<HTMLButtonElement>('profile-button');
+  const domainButton = byId<HTMLButtonElement>('profile-domain-button');
+  const useContacts = byId<HTMLInputElement>('profile-contacts');
+  const useFaults = byId<HTMLInputElement>('profile-faults');
+  const swathInput = byId<HTMLInputElement>('section-swath');
+  const swathProblem = byId<HTMLElement>('section-swath-problem');
+  const drawButton = byId<HTMLButtonElement>('section-draw');
+  const drawingButtons = ['section-centre', 'section-undo', 'section-finish', 'section-cancel'].map((id) => byId<HTMLButtonElement>(id));
+  const [centreButton, undoButton, finishButton, cancelButton] = drawingButtons;
+  const openButton = byId<HTMLButtonElement>('section-open');
+  const clearButton = byId<HTMLButtonElement>('section-clear');
+
+  let domains: readonly Domain[] = [];
+  let selection: Int32Array = new Int32Array(0);
+  let view: View | null = null;
+  let swath = DEFAULT_SWATH;
+  swathInput.value = String(DEFAULT_SWATH);
+
+  const drawer = new SectionLineDrawer(map, { swath });
+
+  const say = (text: string, problem = false): void => {
+    status.textContent = text; // text only
+    status.classList.toggle('fl-app__status--problem', problem);
+  };
+
+  // ---- Building and showing a view -------------------------------------------------------------
+
+  async function show(next: View): Promise<void> {
+    const choice: AxisChoice = picker.choice;
+    if (!choice.axis) {
+      say(`Choose a fold axis first. ${choice.problem ?? ''}`.trim(), true);
+      return;
+    }
+    const axis: Line = choice.axis;
+    const what = next.kind === 'area' ? next.what : `Section ${metresText(turfLength(lineString(next.line.map((p) => [p[0], p[1]])), { units: 'kilometers' }) * 1000)}, ${next.line.length} points`;
+    const label = `${what} — axis ${axisText(axis)}: ${choice.from}`;
+    try {
+      const data = buildProfileData({
+        stations: deps.stations(),
+        ...(useContacts.checked && { contacts: deps.contacts }),
+        ...(useFaults.checked && { faults: deps.faults }),
+        dem: await deps.dem(),
+        axis,
+        ...(next.kind === 'area' ? { ring: next.ring } : { section: { line: next.line, swath } }),
+        label,
+      });
+      view = next;
+      profile.data = data;
+      profile.label = label;
+      profileBox.setAttribute('aria-label', next.kind === 'area' ? 'Down-plunge profile' : 'Vertical section');
+      profileBox.show(); // not modal: the map stays live for hover linking and for drawing the next line
+      const layers = [useContacts.checked && 'contacts', useFaults.checked && 'faults'].filter(Boolean).join(' and ') || 'no map lines';
+      say(`${next.kind === 'area' ? 'Profile' : 'Section'} drawn with axis ${axisText(axis)}; ${layers} projected.`);
+    } catch (e) {
+      say(`The ${next.kind === 'area' ? 'profile' : 'section'} could not be drawn: ${e instanceof Error ? e.message : String(e)}`, true);
+    }
+  }
+
+  /** Draws the view shown again after an option changed (axis, lines, swath). */
+  function redraw(): void {
+    if (view && profileBox.open) void show(view);
+  }
+
+  // ---- Axis, line layers, swath ----------------------------------------------------------------
+
+  function updateDomainButton(): void {
+    const d = picker.source === 'domain' ? domains.find((x) => x.id === picker.domainId) : undefined;
+    domainButton.hidden = !d;
+    if (d) domainButton.textContent = `Down-plunge profile of domain “${d.name}”`;
+  }
+
+  picker.addEventListener('foldlens-axis-change', () => {
+    updateDomainButton();
+    redraw();
+  });
+  useContacts.addEventListener('change', redraw);
+  useFaults.addEventListener('change', redraw);
+  swathInput.addEventListener('change', () => {
+    const read = readNumberField(swathInput.value, { field: 'Swath half-width', min: 0, minExclusive: true, max: MAX_SWATH, expected: `metres, more than 0 and at most ${MAX_SWATH}` });
+    swathInput.setAttribute('aria-invalid', String(!read.ok));
+    swathProblem.hidden = read.ok;
+    swathProblem.textContent = read.ok ? '' : read.problem.message;
+    if (!read.ok) return;
+    swath = read.value;
+    drawer.setSwath(swath);
+    if (view?.kind === 'section') redraw();
+  });
+
+  // ---- Down-plunge profile of the selection or a domain ---------------------------------------
+
+  profileButton.addEventListener('click', () => {
+    const ring = foldlens.shape;
+    if (!ring) {
+      say('Draw a selection first (Lasso, Polygon or Box): its outline is the area projected.', true);
+      return;
+    }
+    void show({ kind: 'area', ring, what: `Selection of ${selection.length} stations` });
+  });
+  domainButton.addEventListener('click', () => {
+    const d = domains.find((x) => x.id === picker.domainId);
+    if (d) void show({ kind: 'area', ring: d.ring, what: `Domain “${d.name}”` });
+  });
+
+  foldlens.addEventListener('selectionchange', (e) => {
+    const d = (e as CustomEvent<SelectionChangeDetail>).detail;
+    profileButton.disabled = d.shape === null;
+    if (!d.final) return;
+    selection = d.indices;
+    if (d.indices.length === 0) {
+      picker.selection = null;
+      picker.hinges = null;
+      return;
+    }
+    picker.selection = { axis: null, n: 0, cone95: null, pending: true };
+    picker.hinges = hingeMeanAxis(deps.stations(), d.indices);
+  });
+
+  // ---- Section line ----------------------------------------------------------------------------
+
+  function drawingUi(drawing: boolean): void {
+    drawButton.setAttribute('aria-pressed', String(drawing));
+    drawButton.textContent = drawing ? 'Drawing section line…' : drawer.line ? 'Draw a new section line' : 'Draw section line';
+    for (const b of drawingButtons) b.hidden = !drawing;
+    openButton.disabled = drawing || !drawer.line;
+    clearButton.disabled = drawing || !drawer.line;
+    undoButton.disabled = drawer.vertices.length === 0;
+    finishButton.disabled = drawer.vertices.length < 2;
+  }
+
+  drawButton.addEventListener('click', () => {
+    if (drawer.drawing) {
+      drawer.cancel();
+      return;
+    }
+    deps.panTool();
+    profileBox.close(); // the whole map is needed to draw on
+    drawer.start();
+  });
+  centreButton.addEventListener('click', () => {
+    const c = map.getCenter();
+    drawer.addVertex([c.lng, c.lat]);
+  });
+  undoButton.addEventListener('click', () => drawer.undoVertex());
+  finishButton.addEventListener('click', () => drawer.finish());
+  cancelButton.addEventListener('click', () => drawer.cancel());
+  openButton.addEventListener('click', () => {
+    if (drawer.line) void show({ kind: 'section', line: drawer.line });
+  });
+  clearButton.addEventListener('click', () => {
+    drawer.setLine(null);
+    if (view?.kind === 'section') {
+      view = null;
+      profileBox.close();
+    }
+    drawingUi(false);
+    say('Section line cleared.');
+  });
+
+  drawer.addEventListener('sectionstart', () => {
+    drawingUi(true);
+    say('Click (or tap) the map where the section starts, then at each bend. Double-click, tap the last point again or press Enter to finish; Backspace takes the last point back; Escape cancels.');
+  });
+  drawer.addEventListener('sectionchange', () => {
+    drawingUi(true);
+    const n = drawer.vertices.length;
+    say(n === 0 ? 'No point yet: click where the section starts.' : `${n} point${n === 1 ? '' : 's'}. ${n === 1 ? 'Click where the section ends (or bends).' : 'Double-click, tap the last point again or press Enter to finish.'}`);
+  });
+  drawer.addEventListener('sectioncancel', () => {
+    drawingUi(false);
+    say(drawer.line ? 'Drawing cancelled; the previous section line is kept.' : 'Drawing cancelled.');
+  });
+  drawer.addEventListener('sectionproblem', (e) => say((e as CustomEvent<{ message: string }>).detail.message, true));
+  drawer.addEventListener('sectionend', (e) => {
+    drawingUi(false);
+    void show({ kind: 'section', line: (e as CustomEvent<{ vertices: readonly LonLatPair[] }>).detail.vertices });
+  });
+
+  // Picking a selection tool ends the section drawing: one tool owns the pointer at a time.
+  document.addEventListener('foldlens-tool', (e) => {
+    if ((e as CustomEvent<{ tool: string }>).detail.tool !== 'pan') drawer.cancel();
+  });
+
+  drawingUi(false);
+  return {
+    get drawingSection() {
+      return drawer.drawing;
+    },
+    selectionAnalysed(indices: Int32Array, analysis: FoldAnalysis | null): void {
+      if (indices !== selection && !(indices.length === selection.length && indices.every((v, i) => v === selection[i]))) return;
+      picker.selection = { axis: analysis?.axis ?? null, n: analysis?.n ?? 0, cone95: analysis?.cone95 ?? null };
+    },
+    setDomains(next: readonly Domain[]): void {
+      domains = next;
+      picker.domains = next.map((d) => ({ id: d.id, name: d.name, axis: d.analysis?.axis ?? null, cone95: d.analysis?.cone95 ?? null }));
+      if (!next.some((d) => d.id === picker.domainId)) picker.domainId = next[0]?.id ?? '';
+      updateDomainButton();
+    },
+  };
+}
