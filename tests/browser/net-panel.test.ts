@@ -345,6 +345,10 @@ describe('<foldlens-net> net panel in a browser', () => {
       document.querySelector('foldlens-net')!.net = 'equal-area';
     });
     await load(page, 'fold'); // the page computes the density for the panel's net
+    // A plain title for the picture in docs/ (the page's own title carries a payload for the escaping tests).
+    await page.evaluate(() => {
+      document.querySelector('foldlens-net')!.selectionLabel = 'North ridge, Tarn Hollow: lasso 1';
+    });
     const dir = process.env.FOLDLENS_SHOTS ?? tmpdir();
     await page.locator('foldlens-net').screenshot({ path: join(dir, 'foldlens-net-panel.png') });
     expect(errors).toEqual([]);

@@ -349,7 +349,7 @@ export function legendLayer(input: LegendInput, layout: NetLayout = NET_LAYOUT):
   if (a?.beta && show.beta) glyph('beta', markerPathData('diamond', MARKER_SIZE.beta), 'beta', `β axis ${formatLine(a.beta).text}`);
   if (d && show.limbs) {
     glyph('limb', markerPathData('disc', MARKER_SIZE.limb), 'limbs', 'Limb maxima');
-    if (d.axialPlane) stroke('axial-plane', 'axial-plane', 'Axial plane (limb bisector)');
+    if (d.axialPlane) stroke('axial-plane', 'axial-plane', 'Limb bisector');
   }
   const g = input.density;
   if (g && show.contours && g.levels.length > 0) {
