@@ -13,6 +13,8 @@ const ALLOWED: readonly RegExp[] = [
   /^styles\/foldlens\.css$/,
   /^dist\/lib\/[\w.-]+\.js(\.map)?$/,
   /^dist\/lib\/assets\/[\w.-]+\.worker-[\w-]+\.js(\.map)?$/,
+  // The EPSG register table, loaded on first use of a code outside the built-in list (src/io/epsgTable.ts).
+  /^dist\/lib\/assets\/epsgTable-[\w-]+\.js(\.map)?$/,
   /^dist\/types\/(?!app\/|cli\/)[\w/.-]+\.d\.ts$/,
   /^dist\/cli\/foldlens\.js(\.map)?$/,
 ];
