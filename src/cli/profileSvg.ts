@@ -39,11 +39,14 @@ const NEAR: readonly [number, number, number] = [0x1b, 0x6f, 0x8a];
 const FAR: readonly [number, number, number] = [0xc2, 0x57, 0x1a];
 
 /**
- * Escapes text for SVG/XML content and attribute values.
+ * Escapes text for SVG/XML content and attribute values. Characters XML 1.0 does not allow
+ * (control characters, U+FFFE, U+FFFF) become the replacement sign, so the file stays readable.
  * @example escapeXml('<b> & "x"') // '&lt;b&gt; &amp; &quot;x&quot;'
  */
 export function escapeXml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+  return text
+    .replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+    .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '\uFFFD');
 }
 
 /**

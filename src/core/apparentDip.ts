@@ -47,7 +47,8 @@ export function apparentDipInSection(plane: Plane, sectionAzimuth: number): numb
   if (!(plane.dip >= 0 && plane.dip <= 90)) throw new RangeError(`dip ${String(plane.dip)} is not a dip (0 to 90 degrees)`);
   if (!Number.isFinite(plane.dipDirection)) throw new RangeError(`dip direction ${String(plane.dipDirection)} is not an azimuth`);
   if (!Number.isFinite(sectionAzimuth)) throw new RangeError(`section azimuth ${String(sectionAzimuth)} is not an azimuth`);
-  const c = Math.cos(toRadians(sectionAzimuth - plane.dipDirection));
+  // Each azimuth reduced first (exact in floating point), so the difference cannot overflow.
+  const c = Math.cos(toRadians((sectionAzimuth % 360) - (plane.dipDirection % 360)));
   const d = toRadians(plane.dip);
   const y = Math.sin(d) * Math.abs(c);
   const x = Math.cos(d);
@@ -66,16 +67,18 @@ export function apparentPlungeInSection(line: Line, sectionAzimuth: number): num
   if (!Number.isFinite(line.trend)) throw new RangeError(`trend ${String(line.trend)} is not an azimuth`);
   if (!Number.isFinite(sectionAzimuth)) throw new RangeError(`section azimuth ${String(sectionAzimuth)} is not an azimuth`);
   const p = toRadians(line.plunge);
-  const along = Math.cos(p) * Math.cos(toRadians(sectionAzimuth - line.trend));
+  const along = Math.cos(p) * Math.cos(toRadians((sectionAzimuth % 360) - (line.trend % 360)));
   return Math.sign(along || 1) * toDegrees(Math.atan2(Math.sin(p), Math.abs(along)));
 }
 
 /**
  * How an angle from the horizontal looks when the vertical scale is multiplied by
- * `verticalExaggeration`: tan α' = k tan α (derived: only heights are stretched).
+ * `verticalExaggeration`: tan α' = k tan α (derived: only heights are stretched). Throws a
+ * RangeError for an angle or exaggeration that is not a finite number.
  * @example exaggeratedAngle(10, 2) // 19.43
  */
 export function exaggeratedAngle(angle: number, verticalExaggeration: number): number {
+  if (!Number.isFinite(angle)) throw new RangeError(`angle ${String(angle)} is not a number of degrees`);
   if (!(verticalExaggeration > 0 && Number.isFinite(verticalExaggeration))) {
     throw new RangeError(`vertical exaggeration ${String(verticalExaggeration)} is not a positive number`);
   }

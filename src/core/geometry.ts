@@ -139,13 +139,13 @@ export function angleBetweenPlanes(a: Plane, b: Plane): number {
  * about the downward vertical (0, 0, 1), +90° turns north into east: trends increase, as on
  * a compass seen from above. The axis need not be a unit vector; its length is ignored.
  *
- * @throws RangeError for a zero axis or a non-finite angle.
+ * @throws RangeError for a zero or non-finite axis or a non-finite angle.
  * @example rotateAboutAxis({x: 1, y: 0, z: 0}, {x: 0, y: 0, z: 1}, 90) // {x: 0, y: 1, z: 0} (north -> east)
  */
 export function rotateAboutAxis(v: Vec3, axis: Vec3, degrees: number): Vec3 {
   if (!Number.isFinite(degrees)) throw new RangeError(`rotateAboutAxis: degrees is ${String(degrees)}; expected a finite angle`);
-  if (!(norm(axis) > EPSILON)) {
-    throw new RangeError(`rotateAboutAxis: axis (${axis.x}, ${axis.y}, ${axis.z}) has no direction; expected a non-zero vector`);
+  if (!(norm(axis) > EPSILON && Number.isFinite(norm(axis)))) {
+    throw new RangeError(`rotateAboutAxis: axis (${axis.x}, ${axis.y}, ${axis.z}) has no direction; expected a non-zero finite vector`);
   }
   const k = normalize(axis);
   const t = toRadians(degrees);
@@ -169,7 +169,8 @@ export function rotateAboutAxis(v: Vec3, axis: Vec3, degrees: number): Vec3 {
 export function apparentDip(plane: Plane, azimuth: number): number {
   checkPlane(plane, 'apparentDip: plane');
   if (!Number.isFinite(azimuth)) throw new RangeError(`apparentDip: azimuth is ${String(azimuth)}; expected a finite azimuth in degrees`);
-  const cosDelta = Math.cos(toRadians(azimuth - plane.dipDirection));
+  // Each azimuth reduced first (exact in floating point), so the difference cannot overflow.
+  const cosDelta = Math.cos(toRadians((azimuth % 360) - (plane.dipDirection % 360)));
   const dip = toRadians(plane.dip);
   // atan2 form of tan(a) = tan(d)·cos(Δ) so that a vertical plane (tan d infinite) gives ±90.
   const rise = Math.sin(dip) * cosDelta;

@@ -118,7 +118,10 @@ export function girdleAxis(poles: readonly Vec3[]): Line {
  * @example distanceFromGirdle({x: 0, y: 0, z: 1}, {x: 1, y: 0, z: 0}) // 0
  */
 export function distanceFromGirdle(pole: Vec3, axis: Vec3): number {
-  const d = Math.abs(pole.x * axis.x + pole.y * axis.y + pole.z * axis.z) / (Math.hypot(pole.x, pole.y, pole.z) * Math.hypot(axis.x, axis.y, axis.z));
+  const lengths = Math.hypot(pole.x, pole.y, pole.z) * Math.hypot(axis.x, axis.y, axis.z);
+  // A zero or non-finite vector has no direction: 0/0 would give NaN.
+  if (!(lengths > 0 && Number.isFinite(lengths))) throw new RangeError(`distanceFromGirdle: pole (${pole.x}, ${pole.y}, ${pole.z}) and axis (${axis.x}, ${axis.y}, ${axis.z}); expected two non-zero finite vectors`);
+  const d = Math.abs(pole.x * axis.x + pole.y * axis.y + pole.z * axis.z) / lengths;
   return toDegrees(asinClamped(d));
 }
 

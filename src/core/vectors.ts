@@ -138,19 +138,30 @@ export function normalToPlane(v: Vec3): Plane {
 }
 
 /**
- * Angle in degrees between two vectors, in [0, 180].
+ * Angle in degrees between two vectors, in [0, 180]. Throws a RangeError when either has no
+ * direction (zero length) or is not finite: there is no angle to give.
  * @example
  * angleBetweenVectors(vec3(1, 0, 0), vec3(-1, 0, 0)) // 180
  */
 export function angleBetweenVectors(a: Vec3, b: Vec3): number {
-  return toDegrees(acosClamped(dot(a, b) / (norm(a) * norm(b))));
+  return toDegrees(acosClamped(dot(a, b) / lengths(a, b, 'angleBetweenVectors')));
 }
 
 /**
- * Angle in degrees between two axes (lines without sense), in [0, 90].
+ * Angle in degrees between two axes (lines without sense), in [0, 90]. Throws a RangeError
+ * like {@link angleBetweenVectors}.
  * @example
  * axialAngle(vec3(1, 0, 0), vec3(-1, 0, 0)) // 0: the same axis
  */
 export function axialAngle(a: Vec3, b: Vec3): number {
-  return toDegrees(acosClamped(Math.abs(dot(a, b)) / (norm(a) * norm(b))));
+  return toDegrees(acosClamped(Math.abs(dot(a, b)) / lengths(a, b, 'axialAngle')));
+}
+
+/** |a|·|b|, or a RangeError naming the call when it is zero or not finite (0/0 would be NaN). */
+function lengths(a: Vec3, b: Vec3, what: string): number {
+  const n = norm(a) * norm(b);
+  if (!(n > 0 && Number.isFinite(n))) {
+    throw new RangeError(`${what}: (${a.x}, ${a.y}, ${a.z}) and (${b.x}, ${b.y}, ${b.z}); expected two non-zero finite vectors`);
+  }
+  return n;
 }

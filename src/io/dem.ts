@@ -54,16 +54,16 @@ export async function readDem(bytes: ArrayBuffer | Uint8Array, options: ReadDemO
   } catch (e) {
     throw new DemError(`${source} is not a GeoTIFF that can be read: ${(e as Error).message}`);
   }
-  const width = image.getWidth();
-  const height = image.getHeight();
-  const samples = image.getSamplesPerPixel();
+  const width = tags(source, () => image.getWidth());
+  const height = tags(source, () => image.getHeight());
+  const samples = tags(source, () => image.getSamplesPerPixel());
   if (!(Number.isInteger(band) && band >= 1 && band <= samples)) throw new DemError(`${source}: band ${band} does not exist; the file has ${samples} band(s)`);
 
-  const fd = image.getFileDirectory();
-  const scale = fd.getValue('ModelPixelScale') as ArrayLike<number> | undefined;
-  const tie = fd.getValue('ModelTiepoint') as ArrayLike<number> | undefined;
-  const matrix = fd.getValue('ModelTransformation') as ArrayLike<number> | undefined;
-  const keys = (image.getGeoKeys() ?? {}) as Record<string, unknown>;
+  const fd = tags(source, () => image.getFileDirectory());
+  const scale = tags(source, () => fd.getValue('ModelPixelScale')) as ArrayLike<number> | undefined;
+  const tie = tags(source, () => fd.getValue('ModelTiepoint')) as ArrayLike<number> | undefined;
+  const matrix = tags(source, () => fd.getValue('ModelTransformation')) as ArrayLike<number> | undefined;
+  const keys = tags(source, () => image.getGeoKeys() ?? {}) as Record<string, unknown>;
   const rasterType = keys.GTRasterTypeGeoKey ?? 1;
   if (rasterType !== 1 && rasterType !== 2) throw new DemError(`${source}: GTRasterTypeGeoKey ${String(rasterType)} is neither 1 (pixel is area) nor 2 (pixel is point)`);
   // Raster position of the centre of cell (0, 0).
@@ -111,5 +111,14 @@ export async function readDem(bytes: ArrayBuffer | Uint8Array, options: ReadDemO
     return createDem({ width, height, values, x0, y0, dx, dy, noData: image.getGDALNoData(), ...(epsg !== undefined && { epsg }), geographic, source });
   } catch (e) {
     throw new DemError((e as Error).message);
+  }
+}
+
+/** A tag read through geotiff.js, which throws plain Errors for tags it cannot decode: here a DemError. */
+function tags<T>(source: string, read: () => T): T {
+  try {
+    return read();
+  } catch (e) {
+    throw new DemError(`${source}: the GeoTIFF tags could not be read: ${(e as Error).message}`);
   }
 }

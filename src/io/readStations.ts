@@ -315,12 +315,14 @@ const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /**
  * A number as written in a cell (decimal point, optional exponent), or undefined.
- * Decimal commas are not read: "45,3" could be one number or two.
+ * Decimal commas are not read: "45,3" could be one number or two. A number too large for a
+ * double ("1e400") is not read either: it would be Infinity.
  * @example parseNumberCell(' 512034.5 ') // 512034.5
  */
 export function parseNumberCell(text: string): number | undefined {
   const t = text.trim();
-  return NUMBER.test(t) ? Number(t) : undefined;
+  const n = NUMBER.test(t) ? Number(t) : Number.NaN;
+  return Number.isFinite(n) ? n : undefined;
 }
 
 function readElevation(r: RowReader): number | undefined {

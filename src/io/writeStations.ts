@@ -16,6 +16,11 @@ import { addedColumns, normalisedValues, type NormalisedOptions, type Normalised
  * the header (already reported as problems) go, as a JSON list, into `fl_extra_fields`.
  * The delimiter is the table's; lines end in "\n"; fields are quoted only when they must be
  * (RFC 4180 §2), including fields with leading or trailing spaces.
+ * Cells a spreadsheet would take as a formula (starting =, +, -, @) are also written as read,
+ * with no apostrophe: this file gives the user's own fields back, and a prefix would change
+ * values such as negative coordinates and break the round trip. Foldlens never evaluates cell
+ * text; open the file in a spreadsheet as text if its origin is not trusted. (The net's numbers
+ * CSV, which Foldlens composes itself, does prefix such cells: net/exportNumbers.ts.)
  * @example
  * const table = readCsv('id,dd,dip\nA,120,40');
  * stationsToCsv(table, readStations(table, detectColumns(table.headers).mapping), { planeFormat: 'rhr' })

@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import Papa from 'papaparse';
 import { CsvError, decodeText, readCsv, type CsvRow } from '../../src/io/csvTable';
 import { CsvStreamReader, NewlineNormaliser, Utf8ChunkDecoder } from '../../src/components/import/csvStream';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 /**
  * The streaming reader must give exactly what readCsv (io/csvTable.ts) gives for the whole text:
@@ -81,9 +82,9 @@ describe('CsvStreamReader', () => {
           expect(got.ok).toBe(expected.ok);
         } else expect(got).toEqual(expected);
       }),
-      { numRuns: 3000 },
+      { numRuns: fuzzRuns(3000) },
     );
-  });
+  }, fuzzTimeout());
 
   it('CsvStreamReader streams a 20,000-row text in 4 kB pieces to the same rows as readCsv(text)', () => {
     const lines = ['Stn,Type,Strike,Dip,DipQuad,Remarks'];
@@ -174,7 +175,7 @@ describe('Utf8ChunkDecoder', () => {
         if (expected.startsWith('error') && b.includes(0)) expect(got).toMatch(/^error: /);
         else expect(got).toBe(expected);
       }),
-      { numRuns: 2000 },
+      { numRuns: fuzzRuns(2000) },
     );
-  });
+  }, fuzzTimeout());
 });

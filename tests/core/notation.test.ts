@@ -30,6 +30,7 @@ import {
 } from '../../src/core/notation';
 import type { Line, PlaneMeasurement } from '../../src/core/types';
 import { expectAzimuth, expectClose, expectDeepClose } from '../helpers/tolerance';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 /** Runs f and returns the NotationError it throws; fails the test if it returns or throws anything else. */
 function notationErrorOf(f: () => unknown): NotationError {
@@ -549,9 +550,9 @@ describe('parsers never throw anything but NotationError (property)', () => {
         const triedLine = tryParseLine(text);
         if (!(triedLine instanceof NotationProblem)) expect(parseLine(text)).toEqual(triedLine);
       }),
-      { numRuns: 3000 },
+      { numRuns: fuzzRuns(3000) },
     );
-  });
+  }, fuzzTimeout());
 
   it('detectPlaneNotation on arbitrary samples never throws and accounts for every sample', () => {
     fc.assert(
@@ -560,8 +561,9 @@ describe('parsers never throw anything but NotationError (property)', () => {
         const c = r.counts;
         expect(c.bare + c.strikeQuadrant + c.quadrant + c.unreadable + c.blank).toBe(samples.length);
       }),
+      { numRuns: fuzzRuns(100) },
     );
-  });
+  }, fuzzTimeout());
 
   it('parsePlane on a 100 000-character string stops at the token cap with a NotationError about extra text', () => {
     const err = notationErrorOf(() => parsePlane('1 '.repeat(50_000), 'dipdir'));

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { detectColumns, headerKey, parseColumnMapping, COLUMN_SYNONYMS, FIELDS, type Field } from '../../src/io/columns';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 describe('detectColumns(headers)', () => {
   // Headers as they are commonly written in field spreadsheets (common practice), and the field each holds.
@@ -132,7 +133,7 @@ describe('detectColumns(headers)', () => {
           }
         }
       }),
-      { numRuns: 1500 },
+      { numRuns: fuzzRuns(1500) },
     );
-  });
+  }, fuzzTimeout());
 });

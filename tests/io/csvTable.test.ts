@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import { readCsv, decodeText, resolveDelimiter, CsvError, type CsvErrorCode } from '../../src/io/csvTable';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 /** Runs `f` and returns the CsvError code it throws (failing if it throws anything else or nothing). */
 function csvErrorOf(f: () => unknown): { code: CsvErrorCode; message: string; row?: number } {
@@ -202,9 +203,9 @@ describe('readCsv refusals', () => {
           if (!(e instanceof CsvError)) throw e;
         }
       }),
-      { numRuns: 2000 },
+      { numRuns: fuzzRuns(2000) },
     );
-  });
+  }, fuzzTimeout());
 
   it('decodeText(bytes) throws nothing but CsvError on arbitrary bytes (fuzz)', () => {
     fc.assert(
@@ -215,7 +216,7 @@ describe('readCsv refusals', () => {
           if (!(e instanceof CsvError)) throw e;
         }
       }),
-      { numRuns: 1000 },
+      { numRuns: fuzzRuns(1000) },
     );
-  });
+  }, fuzzTimeout());
 });

@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { normalizeKind, KIND_WORD_TABLE } from '../../src/io/kinds';
 import { LINE_KINDS, PLANE_KINDS } from '../../src/core/types';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 describe('normalizeKind(word)', () => {
   // Kind words of the trade (common practice) and the kind each names.
@@ -53,6 +54,6 @@ describe('normalizeKind(word)', () => {
     fc.assert(fc.property(fc.string({ maxLength: 30 }), (w) => {
       const k = normalizeKind(w);
       expect(k === undefined || typeof k === 'string').toBe(true);
-    }));
-  });
+    }), { numRuns: fuzzRuns(100) });
+  }, fuzzTimeout());
 });

@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { readGeoJsonStations, GeoJsonError } from '../../src/io/readGeoJson';
 import { expectDeepClose } from '../helpers/tolerance';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 const point = (lon: number, lat: number, properties: Record<string, unknown>, extra: number[] = []) => ({
   type: 'Feature',
@@ -93,7 +94,7 @@ describe('readGeoJsonStations(input)', () => {
           if (!(e instanceof GeoJsonError)) throw e;
         }
       }),
-      { numRuns: 1000 },
+      { numRuns: fuzzRuns(1000) },
     );
-  });
+  }, fuzzTimeout());
 });

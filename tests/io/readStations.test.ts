@@ -6,6 +6,7 @@ import { readStations, readStation, parseNumberCell, type StationReadOptions } f
 import { builtInCrs, gridConvergence, toLonLat } from '../../src/io/crs';
 import { describeProblem, isUsable, type Station } from '../../src/core/station';
 import { expectAzimuth, expectClose, expectDeepClose } from '../helpers/tolerance';
+import { fuzzRuns, fuzzTimeout } from '../helpers/fuzzRuns';
 
 /** Reads CSV text with detected columns. */
 function read(text: string, options: StationReadOptions = {}): Station[] {
@@ -186,9 +187,9 @@ describe('readStations never throws on arbitrary cells (fuzz)', () => {
         if (s.plane) expect(s.plane.dipDirection >= 0 && s.plane.dipDirection < 360 && s.plane.dip >= 0 && s.plane.dip <= 90).toBe(true);
         for (const p of s.problems) expect(typeof describeProblem(p)).toBe('string');
       }),
-      { numRuns: 1500 },
+      { numRuns: fuzzRuns(1500) },
     );
-  });
+  }, fuzzTimeout());
 
   it('parseNumberCell(text) reads decimal points and exponents, and refuses decimal commas', () => {
     expect(parseNumberCell(' 512034.5 ')).toBe(512034.5);

@@ -51,8 +51,9 @@ export function escapeXml(text: string): string {
     .replace(/>/g, '&gt;')
     .replace(/"/g, '&quot;')
     .replace(/'/g, '&apos;')
-    // Control characters are not allowed in XML 1.0; show them as the replacement sign.
-    .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F]/g, '\uFFFD');
+    // Control characters and U+FFFE/U+FFFF are not allowed in XML 1.0 (its Char production):
+    // one would leave the file unreadable, so show them as the replacement sign.
+    .replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '\uFFFD');
 }
 
 /**
