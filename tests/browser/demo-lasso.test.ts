@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, openDemo } from './browser';
+import { analysisStamp, domainPath, dragThrough as dragLasso, netPanelText as panelText, waitForAnalysis } from './demoActions';
 import truth from '../../sample-maps/korvane/truth.json';
 import { angleBetweenLines } from '../../src/core/geometry';
 
@@ -12,41 +13,6 @@ import { angleBetweenLines } from '../../src/core/geometry';
  * generator's own fit of all readings misses by under 0.4°), plus 0.5° for whole-degree display.
  */
 const AXIS_TOLERANCE_DEGREES = 3;
-
-/** Screen points of a domain polygon, pulled 15% toward its centre so the lasso stays inside. */
-async function domainPath(page: Page, ring: number[][]): Promise<Array<{ x: number; y: number }>> {
-  return page.evaluate((r) => {
-    const map = (window as unknown as { foldlensDemo: { map: import('maplibre-gl').Map } }).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    const pts = r.slice(0, -1).map(([lon, lat]) => map.project([lon, lat]));
-    const cx = pts.reduce((s, p) => s + p.x, 0) / pts.length;
-    const cy = pts.reduce((s, p) => s + p.y, 0) / pts.length;
-    return pts.map((p) => ({ x: rect.left + cx + (p.x - cx) * 0.85, y: rect.top + cy + (p.y - cy) * 0.85 }));
-  }, ring);
-}
-
-async function dragLasso(page: Page, corners: Array<{ x: number; y: number }>): Promise<void> {
-  await page.mouse.move(corners[0].x, corners[0].y);
-  await page.mouse.down();
-  const closed = [...corners, corners[0]];
-  for (let k = 1; k < closed.length; k++) {
-    const a = closed[k - 1];
-    const b = closed[k];
-    for (let s = 1; s <= 15; s++) await page.mouse.move(a.x + ((b.x - a.x) * s) / 15, a.y + ((b.y - a.y) * s) / 15);
-  }
-  await page.mouse.up();
-}
-
-async function panelText(page: Page): Promise<string> {
-  return page.evaluate(() => {
-    const net = document.querySelector('foldlens-net')!;
-    return (net.shadowRoot?.textContent ?? '').replace(/\s+/g, ' ');
-  });
-}
-
-async function waitForAnalysis(page: Page, after: string | undefined): Promise<void> {
-  await page.waitForFunction((prev) => document.body.dataset.analysisReady && document.body.dataset.analysisReady !== prev, after, { timeout: 60_000 });
-}
 
 describe('lasso to net panel on the sample map', () => {
   let browser: Browser;
@@ -63,7 +29,7 @@ describe('lasso to net panel on the sample map', () => {
 
   for (const domain of truth.domains) {
     it(`a mouse lasso over the ${domain.id} domain gives a fold axis within ${AXIS_TOLERANCE_DEGREES}° of the planted ${domain.axis.trend.toFixed(0)}/${domain.axis.plunge}`, async () => {
-      const before = await page.evaluate(() => document.body.dataset.analysisReady);
+      const before = await analysisStamp(page);
       await dragLasso(page, await domainPath(page, domain.polygon));
       await waitForAnalysis(page, before);
       const text = await panelText(page);
@@ -78,7 +44,7 @@ describe('lasso to net panel on the sample map', () => {
   }
 
   it('the lassoed area saves as a named domain and is still there, with its axis, after a reload', async () => {
-    const before = await page.evaluate(() => document.body.dataset.analysisReady);
+    const before = await analysisStamp(page);
     await dragLasso(page, await domainPath(page, truth.domains[0].polygon));
     await waitForAnalysis(page, before);
     const panel = page.locator('foldlens-domains');
@@ -101,7 +67,7 @@ describe('lasso to net panel on the sample map', () => {
   });
 
   it('a lasso around two stations shows a clear message instead of an axis, and never NaN', async () => {
-    const before = await page.evaluate(() => document.body.dataset.analysisReady);
+    const before = await analysisStamp(page);
     // A tiny lasso around the first usable bedding station.
     const p = await page.evaluate(() => {
       const d = (window as unknown as { foldlensDemo: { map: import('maplibre-gl').Map; stations: Array<{ kind?: string; lon?: number; lat?: number; problems: unknown[] }> } }).foldlensDemo;

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, openDemo } from './browser';
+import { analysisStamp, domainPath, dragThrough as dragLasso, selectedCount, waitForAnalysis } from './demoActions';
 import truth from '../../sample-maps/korvane/truth.json';
 
 /**
@@ -9,34 +10,6 @@ import truth from '../../sample-maps/korvane/truth.json';
  * and applies the saved selection again from the keyboard. The same stations must come back: the
  * count the toolbar shows after the lasso is the reference, and the stations' ids are compared too.
  */
-
-/** Screen points of a domain polygon of the sample map, pulled 15% toward its centre (as demo-lasso.test.ts does). */
-async function domainPath(page: Page, ring: number[][]): Promise<Array<{ x: number; y: number }>> {
-  return page.evaluate((r) => {
-    const map = (window as unknown as { foldlensDemo: { map: import('maplibre-gl').Map } }).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    const pts = r.slice(0, -1).map(([lon, lat]) => map.project([lon, lat]));
-    const cx = pts.reduce((s, p) => s + p.x, 0) / pts.length;
-    const cy = pts.reduce((s, p) => s + p.y, 0) / pts.length;
-    return pts.map((p) => ({ x: rect.left + cx + (p.x - cx) * 0.85, y: rect.top + cy + (p.y - cy) * 0.85 }));
-  }, ring);
-}
-
-/** A freehand lasso with the mouse: press, drag along the corners, release. */
-async function dragLasso(page: Page, corners: Array<{ x: number; y: number }>): Promise<void> {
-  await page.mouse.move(corners[0].x, corners[0].y);
-  await page.mouse.down();
-  const closed = [...corners, corners[0]];
-  for (let k = 1; k < closed.length; k++) {
-    const a = closed[k - 1];
-    const b = closed[k];
-    for (let s = 1; s <= 15; s++) await page.mouse.move(a.x + ((b.x - a.x) * s) / 15, a.y + ((b.y - a.y) * s) / 15);
-  }
-  await page.mouse.up();
-}
-
-const selectedCount = (page: Page): Promise<number> =>
-  page.locator('foldlens-toolbar').evaluate((el) => (el as HTMLElement & { selectedCount: number }).selectedCount);
 
 /** Ids of the selected stations, read from the plugin's own selection. */
 const selectedIds = (page: Page): Promise<string[]> =>
@@ -93,7 +66,7 @@ describe('named selections on the demo page', () => {
     const panel = page.locator('foldlens-selections');
     const apply = panel.getByRole('button', { name: 'Apply the selection Oskaran <i>east</i> limb' });
     await apply.waitFor({ timeout: 30_000 });
-    const before = await page.evaluate(() => document.body.dataset.analysisReady);
+    const before = await analysisStamp(page);
     await apply.focus();
     await page.keyboard.press('Enter');
     await expect.poll(() => selectedCount(page), { timeout: 30_000 }).toBe(lassoed);
@@ -104,7 +77,7 @@ describe('named selections on the demo page', () => {
     expect(outline).toBeGreaterThan(10);
     expect(await page.locator('#profile-button').isEnabled()).toBe(true);
     // And the net panel analyses it as any selection.
-    await page.waitForFunction((prev) => document.body.dataset.analysisReady && document.body.dataset.analysisReady !== prev, before, { timeout: 60_000 });
+    await waitForAnalysis(page, before);
     const label = await page.evaluate(() => (document.querySelector('foldlens-net') as HTMLElement & { selectionLabel: string }).selectionLabel);
     expect(label).toMatch(new RegExp(`^${lassoed} stations selected`));
   });

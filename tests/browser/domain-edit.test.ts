@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { booleanPointInPolygon } from '@turf/turf';
 import { launchBrowser, openDemo } from './browser';
+import { analysisStamp, domainPath, dragThrough, waitForAnalysis, type ScreenPoint as Point } from './demoActions';
 import truth from '../../sample-maps/korvane/truth.json';
 
 /**
@@ -11,33 +12,6 @@ import truth from '../../sample-maps/korvane/truth.json';
  * with turf's booleanPointInPolygon over the demo's usable bedding readings inside the edited
  * outline (the demo analyses bedding by default, core/foldInput.ts).
  */
-
-type Point = { x: number; y: number };
-
-/** Screen points of a domain polygon, pulled 15% toward its centre (as demo-lasso.test.ts). */
-async function domainPath(page: Page, ring: number[][]): Promise<Point[]> {
-  return page.evaluate((r) => {
-    const map = (window as unknown as { foldlensDemo: { map: import('maplibre-gl').Map } }).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    const pts = r.slice(0, -1).map(([lon, lat]) => map.project([lon, lat]));
-    const cx = pts.reduce((s, p) => s + p.x, 0) / pts.length;
-    const cy = pts.reduce((s, p) => s + p.y, 0) / pts.length;
-    return pts.map((p) => ({ x: rect.left + cx + (p.x - cx) * 0.85, y: rect.top + cy + (p.y - cy) * 0.85 }));
-  }, ring);
-}
-
-/** Draws a closed path with the mouse button held, in small steps. */
-async function dragThrough(page: Page, points: Point[], closed: boolean): Promise<void> {
-  const path = closed ? [...points, points[0]] : points;
-  await page.mouse.move(path[0].x, path[0].y);
-  await page.mouse.down();
-  for (let k = 1; k < path.length; k++) {
-    const a = path[k - 1];
-    const b = path[k];
-    for (let s = 1; s <= 15; s++) await page.mouse.move(a.x + ((b.x - a.x) * s) / 15, a.y + ((b.y - a.y) * s) / 15);
-  }
-  await page.mouse.up();
-}
 
 /** The outline's vertex handles as drawn on the map: index, lon/lat and page position. */
 async function vertexHandles(page: Page): Promise<Array<{ i: number; lngLat: [number, number]; x: number; y: number }>> {
@@ -73,9 +47,9 @@ describe('editing a domain outline on the map', () => {
   it('dragging a vertex of a saved domain moves its outline and updates its n and axis in the domains list', async () => {
     // 1. Lasso the west domain and save it.
     await page.locator('foldlens-toolbar').getByRole('button', { name: /Lasso/ }).click();
-    const before = await page.evaluate(() => document.body.dataset.analysisReady);
+    const before = await analysisStamp(page);
     await dragThrough(page, await domainPath(page, truth.domains[0].polygon), true);
-    await page.waitForFunction((prev) => document.body.dataset.analysisReady && document.body.dataset.analysisReady !== prev, before, { timeout: 60_000 });
+    await waitForAnalysis(page, before);
     const panel = page.locator('foldlens-domains');
     await panel.getByRole('textbox', { name: 'Name of the new domain' }).fill('Edit test');
     await panel.getByRole('button', { name: 'Save selection as domain' }).click();

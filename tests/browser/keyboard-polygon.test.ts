@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, openDemo } from './browser';
+import { analysisStamp, netPanelText, selectedCount, waitForAnalysis, type DemoWindow } from './demoActions';
 import truth from '../../sample-maps/korvane/truth.json';
 
 /**
@@ -10,8 +11,6 @@ import truth from '../../sample-maps/korvane/truth.json';
  * The selection must then be exactly the stations inside the corners that were dropped, and
  * the net must show a fold axis.
  */
-
-type DemoWindow = { foldlensDemo: { map: import('maplibre-gl').Map } };
 
 async function press(page: Page, key: string): Promise<void> {
   await page.keyboard.press(key);
@@ -75,10 +74,10 @@ describe('keyboard polygon selection in the demo', () => {
     await dropCorner();
     expect(await announcement(page)).toMatch(/Corner 4 .*Enter finishes/);
 
-    const before = await page.evaluate(() => document.body.dataset.analysisReady);
+    const before = await analysisStamp(page);
     await page.keyboard.press('Enter');
     expect(await announcement(page)).toMatch(/Polygon of 4 corners finished/);
-    await page.waitForFunction((prev) => document.body.dataset.analysisReady && document.body.dataset.analysisReady !== prev, before, { timeout: 60_000 });
+    await waitForAnalysis(page, before);
 
     // The stations inside the dropped corners, counted here by an even-odd test on lon/lat
     // (the square is a few hundred metres across, so the map's projection bends it negligibly).
@@ -92,14 +91,14 @@ describe('keyboard polygon selection in the demo', () => {
         }
         return odd;
       };
-      const demo = (window as unknown as { foldlensDemo: { foldlens: { getStations(): ReadonlyArray<{ lon?: number; lat?: number }> } } }).foldlensDemo;
-      return demo.foldlens.getStations().filter((s) => s.lon !== undefined && s.lat !== undefined && inside(s.lon, s.lat)).length;
+      return (window as unknown as DemoWindow).foldlensDemo.foldlens
+        .getStations().filter((s) => s.lon !== undefined && s.lat !== undefined && inside(s.lon, s.lat)).length;
     }, corners);
-    const count = await page.locator('foldlens-toolbar').evaluate((el) => (el as HTMLElement & { selectedCount: number }).selectedCount);
+    const count = await selectedCount(page);
     expect(corners).toHaveLength(4);
     expect(expected).toBeGreaterThan(10);
     expect(count).toBe(expected);
-    const netText = await page.evaluate(() => (document.querySelector('foldlens-net')!.shadowRoot?.textContent ?? '').replace(/\s+/g, ' '));
+    const netText = await netPanelText(page);
     expect(netText).toMatch(/Fold axis \(π\)\s*\d{3}\/\d{2}/);
     expect(errors).toEqual([]);
   });
