@@ -22,6 +22,7 @@ import { axisText, metresText } from '../components/profile/profileText';
 import type { Foldlens, SelectionChangeDetail } from '../map/foldlens';
 import { buildProfileData, DEFAULT_SWATH } from '../map/profileData';
 import { SectionLineDrawer } from '../map/sectionLineDrawer';
+import { setUpTraceTools } from './traceControls';
 
 /** What the block needs from the page. */
 export interface ProfileToolsDeps {
@@ -42,7 +43,7 @@ export interface ProfileToolsDeps {
 
 /** What the page asks of the block. */
 export interface ProfileTools {
-  /** Whether a section line is being drawn (map clicks belong to it). */
+  /** Whether a section line or a trace is being drawn (map clicks belong to it). */
   readonly drawingSection: boolean;
   /** The selection's full analysis arrived (`indices` as given to the analysis). */
   selectionAnalysed(indices: Int32Array, analysis: FoldAnalysis | null): void;
@@ -111,7 +112,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
     try {
       const data = buildProfileData({
         stations: deps.stations(),
-        ...(useContacts.checked && { contacts: deps.contacts }),
+        contacts: { type: 'FeatureCollection', features: [...(useContacts.checked ? deps.contacts.features : []), ...traces.features()] },
         ...(useFaults.checked && { faults: deps.faults }),
         dem: await deps.dem(),
         axis,
@@ -123,7 +124,8 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
       profile.label = label;
       profileBox.setAttribute('aria-label', next.kind === 'area' ? 'Down-plunge profile' : 'Vertical section');
       profileBox.show(); // not modal: the map stays live for hover linking and for drawing the next line
-      const layers = [useContacts.checked && 'contacts', useFaults.checked && 'faults'].filter(Boolean).join(' and ') || 'no map lines';
+      const drawn = traces.features().length;
+      const layers = [useContacts.checked && 'contacts', useFaults.checked && 'faults', drawn > 0 && `${drawn} drawn trace${drawn === 1 ? '' : 's'}`].filter(Boolean).join(' and ') || 'no map lines';
       say(`${next.kind === 'area' ? 'Profile' : 'Section'} drawn with axis ${axisText(axis)}; ${layers} projected.`);
     } catch (e) {
       say(`The ${next.kind === 'area' ? 'profile' : 'section'} could not be drawn: ${e instanceof Error ? e.message : String(e)}`, true);
@@ -136,6 +138,17 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   }
 
   // ---- Axis, line layers, swath ----------------------------------------------------------------
+
+  const traces = setUpTraceTools({
+    map,
+    say,
+    beforeDraw: () => {
+      drawer.cancel();
+      deps.panTool();
+      profileBox.close(); // the whole map is needed to draw on
+    },
+    changed: redraw,
+  });
 
   function updateDomainButton(): void {
     const d = picker.source === 'domain' ? domains.find((x) => x.id === picker.domainId) : undefined;
@@ -206,6 +219,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
       drawer.cancel();
       return;
     }
+    traces.cancel();
     deps.panTool();
     profileBox.close(); // the whole map is needed to draw on
     drawer.start();
@@ -257,7 +271,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   drawingUi(false);
   return {
     get drawingSection() {
-      return drawer.drawing;
+      return drawer.drawing || traces.drawing;
     },
     selectionAnalysed(indices: Int32Array, analysis: FoldAnalysis | null): void {
       if (indices !== selection && !(indices.length === selection.length && indices.every((v, i) => v === selection[i]))) return;

@@ -210,6 +210,28 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
     expect(await vertices()).toBe(withContacts.vertices);
   });
 
+  it('a line traced on the map is projected with the section as its own layer; Clear traces takes it out again', async () => {
+    const key = () => page.evaluate(() => [...document.querySelector('foldlens-profile')!.shadowRoot!.querySelectorAll('[data-layer="legend"] text')].map((t) => t.textContent).join(' | '));
+    await page.getByRole('button', { name: 'Trace a line on the map' }).click();
+    expect(await page.locator('#trace-draw').getAttribute('aria-pressed')).toBe('true');
+    // A trace across the section near its middle, 800 m long: all of it inside the 600 m swath.
+    const [a, b] = await onScreen(page, [fromOrigin(-400, 45), fromOrigin(400, 45)]);
+    await page.mouse.click(a.x, a.y);
+    await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 5 });
+    await page.mouse.dblclick(b.x, b.y);
+    await expect.poll(() => page.locator('#trace-count').textContent()).toBe('1');
+    const traced = () => page.evaluate(() => (window as unknown as Demo).foldlensDemo.map.queryRenderedFeatures({ layers: ['foldlens-trace-1-line'] }).length);
+    await expect.poll(traced, { timeout: 10_000 }).toBeGreaterThan(0); // the trace stays on the map
+    await page.getByRole('button', { name: 'Open section' }).click();
+    await waitForPanel(page, 'section', /^Section /);
+    await expect.poll(key).toMatch(/Drawn trace 1/);
+    expect(await page.locator('#profile-status').textContent()).toContain('contacts and faults and 1 drawn trace projected.');
+    await page.getByRole('button', { name: 'Clear traces' }).click();
+    await page.getByRole('button', { name: 'Open section' }).click();
+    await expect.poll(key).not.toMatch(/Drawn trace/);
+    expect(await page.locator('#trace-count').textContent()).toBe('0');
+  });
+
   it('Escape while drawing a new line cancels it and keeps the last section line', async () => {
     await page.getByRole('button', { name: 'Draw a new section line' }).click();
     const [p] = await onScreen(page, [fromOrigin(0, 0)]);
