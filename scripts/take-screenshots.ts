@@ -1,8 +1,8 @@
 /**
  * Writes the screenshots under docs/ from the running demo in headless Chromium:
- * the overview with a lasso over the west domain, the map at two zoom levels, and a vertical
- * section drawn across the west domain.
- * Run with `npx tsx scripts/take-screenshots.ts [overview] [zoom] [section]` (needs
+ * the overview with a lasso over the west domain, the map at two zoom levels, the map's dark
+ * look, and a vertical section drawn across the west domain.
+ * Run with `npx tsx scripts/take-screenshots.ts [overview] [zoom] [dark] [section]` (needs
  * /usr/bin/chromium); without names it writes them all.
  */
 import { createServer } from 'vite';
@@ -58,6 +58,18 @@ try {
       }, { z: zoom, c: center });
       await page.locator('#map').screenshot({ path: `docs/${name}` });
     }
+  }
+
+  if (want('dark')) {
+    // The dark look, from the theme toggle, close enough in for the dip labels; then light again.
+    await page.locator('#theme').click();
+    await page.evaluate(async () => {
+      const map = (window as unknown as { foldlensDemo: { map: import('maplibre-gl').Map } }).foldlensDemo.map;
+      map.jumpTo({ center: [14.99, 24.62], zoom: 14.6, bearing: 0 });
+      await new Promise((r) => map.once('idle', r));
+    });
+    await page.locator('#map').screenshot({ path: 'docs/map-dark.png' });
+    await page.locator('#theme').click();
   }
 
   if (want('section')) {

@@ -2,7 +2,7 @@
  * What the symbol benchmark's page and driver exchange, shared by both sides.
  */
 
-/** Zoom of the benchmark map: from 15 on, station symbols may overlap, so all of them are placed. */
+/** Zoom of the benchmark map: from 15 on, every station symbol is drawn, overlapping or not. */
 export const ZOOM = 15;
 
 /** Foldlens symbols (the overlay with its default layers) or one plain circle layer. */
@@ -12,8 +12,10 @@ export type RenderKind = 'symbols' | 'circles';
 export interface PageRender {
   readonly kind: RenderKind;
   readonly n: number;
-  /** From handing the stations to the map to the map's 'idle' event, ms. */
+  /** From handing the stations to the map to its 'idle' event and the GPU's finishing that frame, ms. */
   readonly firstRenderMs: number;
+  /** From handing the stations to the map to its 'idle' event, ms (the GPU may still be drawing). */
+  readonly idleMs: number;
   /** The part of firstRenderMs spent on the page's main thread before the map takes over (features, images, setData), ms. */
   readonly handOverMs: number;
   /** Times between successive frames while panning, ms (empty when this render did not pan). */

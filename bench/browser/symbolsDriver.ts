@@ -94,7 +94,8 @@ async function main(): Promise<DriverReport> {
     server = await createServer({
       configFile: 'vite.config.ts',
       cacheDir: 'node_modules/.vite-bench',
-      server: { port: 0, host: '127.0.0.1' },
+      // No hot reload: an edit to the sources while the bench runs must not reload a page mid-measurement.
+      server: { port: 0, host: '127.0.0.1', hmr: false },
       optimizeDeps: { entries: ['bench/browser/*.html'] },
       logLevel: (process.env.BENCH_VITE_LOG as 'info' | undefined) ?? 'error',
     });

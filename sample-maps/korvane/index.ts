@@ -5,7 +5,7 @@
  * The data files are written by `npm run sample-map`; this module is hand-written and only wires
  * them together: it imports the JSON files and builds the MapLibre style with the GeoJSON inlined.
  */
-import type { StyleSpecification } from 'maplibre-gl';
+import type { Map as MapLibreMap, StyleSpecification } from 'maplibre-gl';
 import type { FeatureCollection } from 'geojson';
 import styleTemplate from './style.json';
 import geologyJson from './geology.geo.json';
@@ -64,12 +64,32 @@ const layerFiles: Readonly<Record<string, FeatureCollection>> = {
   'places.geo.json': places,
 };
 
+/** The two looks of the sample map: light paper, or dark for a dark page and dim light. */
+export type SampleMapTheme = 'light' | 'dark';
+
+/**
+ * Paint of the dark look, by layer id: the same layers and the same unit colours, on a dark
+ * ground (units let more of it through), with lines lightened so they keep their contrast.
+ * Station symbols carry their own white halo, so they read on both.
+ */
+const DARK_PAINT: Readonly<Record<string, Readonly<Record<string, unknown>>>> = {
+  'korvane-background': { 'background-color': '#1c2124' },
+  'korvane-geology-fill': { 'fill-opacity': 0.5 },
+  'korvane-topo-minor': { 'line-color': '#cfc3ad', 'line-opacity': 0.3 },
+  'korvane-topo-index': { 'line-color': '#ddd1bb', 'line-opacity': 0.55 },
+  'korvane-wadis': { 'line-color': '#78acd6' },
+  'korvane-contacts': { 'line-color': '#e4e0d8' },
+  'korvane-faults': { 'line-color': '#ff8a7a' },
+  'korvane-hills': { 'circle-color': '#e0cfb0', 'circle-stroke-color': '#1c2124' },
+};
+
 /**
  * The MapLibre style of the sample map with every GeoJSON source inlined; needs no network
- * (no glyphs, sprites or tiles). Returns a new object on every call.
- * @example new maplibregl.Map({ container: 'map', style: buildStyle() })
+ * (no glyphs, sprites or tiles). Returns a new object on every call. `theme: 'dark'` gives the
+ * dark look (see {@link samplePaint} to switch a map that is already showing).
+ * @example new maplibregl.Map({ container: 'map', style: buildStyle({ theme: 'dark' }) })
  */
-export function buildStyle(): StyleSpecification {
+export function buildStyle(options: { readonly theme?: SampleMapTheme } = {}): StyleSpecification {
   const template = structuredClone(styleTemplate) as unknown as StyleSpecification;
   const sources: StyleSpecification['sources'] = {};
   for (const [id, source] of Object.entries(template.sources)) {
@@ -79,8 +99,30 @@ export function buildStyle(): StyleSpecification {
       sources[id] = { ...source, data: structuredClone(data) };
     } else sources[id] = source;
   }
-  return { ...template, sources };
+  if (options.theme !== 'dark') return { ...template, sources };
+  const layers = template.layers.map((layer) => {
+    const dark = DARK_PAINT[layer.id];
+    return dark && 'paint' in layer ? ({ ...layer, paint: { ...layer.paint, ...dark } } as typeof layer) : layer;
+  });
+  return { ...template, sources, layers };
 }
+
+/**
+ * Every paint property of the sample map's layers in a theme, to switch a map showing the
+ * sample style with setPaintProperty, which leaves the layers others added (Foldlens's) alone,
+ * where setStyle would drop them.
+ * @example for (const p of samplePaint('dark')) map.setPaintProperty(p.layer, p.property, p.value);
+ */
+export function samplePaint(theme: SampleMapTheme): Array<{ layer: string; property: PaintName; value: PaintValue }> {
+  return buildStyle({ theme }).layers.flatMap((layer) =>
+    Object.entries(('paint' in layer ? layer.paint : undefined) ?? {}).map(([property, value]) => ({ layer: layer.id, property: property as PaintName, value: value as PaintValue })),
+  );
+}
+
+/** A paint property name, as setPaintProperty takes it. */
+type PaintName = Parameters<MapLibreMap['setPaintProperty']>[1];
+/** A paint property value, as setPaintProperty takes it. */
+type PaintValue = Parameters<MapLibreMap['setPaintProperty']>[2];
 
 /** The style with inlined sources (built once). */
 export const style: StyleSpecification = buildStyle();

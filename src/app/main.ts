@@ -10,7 +10,7 @@ import { foldInputFromStations } from '../core/foldInput';
 import { lineToVector, poleOf } from '../core/vectors';
 import { projectLine } from '../core/netProjection';
 import { KIND_LABELS } from '../map/symbolCatalog';
-import { buildStyle, bounds, truth, contacts, faults, demUrl } from '../../sample-maps/korvane/index';
+import { buildStyle, samplePaint, bounds, truth, contacts, faults, demUrl } from '../../sample-maps/korvane/index';
 import '../components/foldlens-profile';
 import type { FoldlensProfile } from '../components/foldlens-profile';
 import { setUpProfileTools } from './profileControls';
@@ -49,9 +49,12 @@ const legend = $<HTMLElementTagNameMap['foldlens-legend']>('#legend');
 const hint = $<HTMLElement>('#hint');
 const domainsPanel = $<HTMLElementTagNameMap['foldlens-domains']>('#domains');
 
+// The map's look follows the panels': dark when the page is (data-theme, or else the system's choice).
+const pageTheme = document.documentElement.dataset.theme;
+const darkPage = pageTheme === 'dark' || (pageTheme !== 'light' && matchMedia('(prefers-color-scheme: dark)').matches);
 const map = new MapLibreMap({
   container: 'map',
-  style: buildStyle(),
+  style: buildStyle({ theme: darkPage ? 'dark' : 'light' }),
   bounds,
   fitBoundsOptions: { padding: 30 },
   attributionControl: false,
@@ -60,7 +63,7 @@ const map = new MapLibreMap({
 map.addControl(new NavigationControl({ visualizePitch: true }), 'top-left');
 map.addControl(new ScaleControl({ unit: 'metric' }), 'bottom-left');
 
-const foldlens = attachFoldlens(map, { analysis: false }); // the demo runs its own analysis, with density, for the net panel
+const foldlens = attachFoldlens(map, { analysis: false, tooltip: true }); // the demo runs its own analysis, with density, for the net panel
 const domainLayer = new DomainLayer(map);
 let domains: Domain[] = [];
 const analysis = new AnalysisClient();
@@ -172,6 +175,12 @@ themeButton.addEventListener('click', () => {
   const dark = document.documentElement.dataset.theme !== 'dark';
   document.documentElement.dataset.theme = dark ? 'dark' : 'light';
   themeButton.setAttribute('aria-pressed', String(dark));
+  // The sample map follows: its own layers repainted (setStyle would drop Foldlens's layers).
+  const repaint = () => {
+    for (const p of samplePaint(dark ? 'dark' : 'light')) map.setPaintProperty(p.layer, p.property, p.value);
+  };
+  if (map.isStyleLoaded()) repaint();
+  else map.once('idle', repaint);
 });
 legend.addEventListener('foldlens-kind-filter', (e) => foldlens.overlay.setVisibleKinds((e as CustomEvent<{ visibleKinds: string[] | null }>).detail.visibleKinds));
 toolbar.addEventListener('foldlens-tool', (e) => {

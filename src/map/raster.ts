@@ -59,16 +59,72 @@ function signedDistance(shape: Shape, x: number, y: number, grow: number): numbe
   }
 }
 
+/** A rectangle in CSS px around a symbol's anchor, y up (north): left, bottom, right, top. */
+export interface RasterBox {
+  readonly left: number;
+  readonly bottom: number;
+  readonly right: number;
+  readonly top: number;
+}
+
+/**
+ * The smallest box of whole CSS px that holds every painted pixel of the shapes once each is
+ * grown by `grow` px (the halo), including the half pixel of edge smoothing.
+ * @example shapeBounds([{type: 'disc', center: [0, 0], radius: 4, color: [0, 0, 0]}], 1) // {left: -6, bottom: -6, right: 6, top: 6}
+ */
+export function shapeBounds(shapes: readonly Shape[], grow: number): RasterBox {
+  let left = Infinity;
+  let bottom = Infinity;
+  let right = -Infinity;
+  let top = -Infinity;
+  const add = (x: number, y: number, r: number) => {
+    left = Math.min(left, x - r);
+    right = Math.max(right, x + r);
+    bottom = Math.min(bottom, y - r);
+    top = Math.max(top, y + r);
+  };
+  // Half a CSS px of smoothing covers every pixel ratio from 1 (smoothing is half a device pixel).
+  const g = grow + 0.5;
+  for (const s of shapes) {
+    switch (s.type) {
+      case 'segment':
+        add(s.a[0], s.a[1], s.width / 2 + g);
+        add(s.b[0], s.b[1], s.width / 2 + g);
+        break;
+      case 'polygon':
+        for (const [x, y] of s.points) add(x, y, g);
+        break;
+      case 'ring':
+        add(s.center[0], s.center[1], s.radius + s.width / 2 + g);
+        break;
+      case 'disc':
+        add(s.center[0], s.center[1], s.radius + g);
+        break;
+    }
+  }
+  if (!Number.isFinite(left)) return { left: 0, bottom: 0, right: 0, top: 0 };
+  return { left: Math.floor(left), bottom: Math.floor(bottom), right: Math.ceil(right), top: Math.ceil(top) };
+}
+
 /**
  * Draws shapes (first a white halo of `halo` px under all of them, then the shapes in order)
- * into a square image of `size` CSS px at `pixelRatio`.
+ * into a square image of `size` CSS px at `pixelRatio`, centred on the anchor.
  * @example rasterize([{type: 'disc', center: [0, 0], radius: 4, color: [0, 0, 0]}], 12, 2, 1)
  */
 export function rasterize(shapes: readonly Shape[], size: number, pixelRatio: number, halo: number): RasterImage {
-  const w = Math.ceil(size * pixelRatio);
-  const h = w;
-  const data = new Uint8ClampedArray(w * h * 4);
   const half = size / 2;
+  return rasterizeBox(shapes, { left: -half, bottom: -half, right: half, top: half }, pixelRatio, halo);
+}
+
+/**
+ * Draws shapes like {@link rasterize}, into the image of a box around the anchor (a box from
+ * {@link shapeBounds} leaves out the empty margin, which a GPU would otherwise fill for nothing).
+ * @example rasterizeBox(shapes, shapeBounds(shapes, 1.5), 2, 1.5)
+ */
+export function rasterizeBox(shapes: readonly Shape[], box: RasterBox, pixelRatio: number, halo: number): RasterImage {
+  const w = Math.max(1, Math.ceil((box.right - box.left) * pixelRatio));
+  const h = Math.max(1, Math.ceil((box.top - box.bottom) * pixelRatio));
+  const data = new Uint8ClampedArray(w * h * 4);
   // Work in straight-alpha floats, composite "over" shape by shape.
   const r = new Float32Array(w * h);
   const g = new Float32Array(w * h);
@@ -79,9 +135,9 @@ export function rasterize(shapes: readonly Shape[], size: number, pixelRatio: nu
   for (const s of shapes) layers.push({ shape: s, grow: 0, color: s.color });
   const aa = 0.5 / pixelRatio; // half a device pixel of smoothing
   for (let row = 0; row < h; row++) {
-    const y = half - (row + 0.5) / pixelRatio; // y up
+    const y = box.top - (row + 0.5) / pixelRatio; // y up
     for (let col = 0; col < w; col++) {
-      const x = (col + 0.5) / pixelRatio - half;
+      const x = box.left + (col + 0.5) / pixelRatio;
       const i = row * w + col;
       for (const { shape, grow, color } of layers) {
         const d = signedDistance(shape, x, y, grow);

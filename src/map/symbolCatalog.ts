@@ -1,5 +1,5 @@
 import type { Line, LineKind, PlaneKind, PlaneMeasurement } from '../core/types';
-import { isLineKind, isPlaneKind } from '../core/types';
+import { LINE_KINDS, PLANE_KINDS, isLineKind, isPlaneKind } from '../core/types';
 import type { Station } from '../core/station';
 import type { Rgb, Shape } from './raster';
 
@@ -109,6 +109,21 @@ export const planeImageId = (kind: PlaneKind, variant: PlaneVariant): string => 
 export const lineImageId = (kind: LineKind, variant: LineVariant, sense: HingeSense = 'unknown'): string =>
   kind === 'hinge' ? `fl-sym/${kind}/${variant}/${sense}` : `fl-sym/${kind}/${variant}`;
 export const labelImageId = (text: string): string => `fl-num/${text}`;
+
+/**
+ * Every symbol image id the catalog can produce (labels excluded), e.g. to build a style
+ * expression that covers them all.
+ * @example allSymbolImageIds().includes('fl-sym/bedding/inclined') // true
+ */
+export function allSymbolImageIds(): string[] {
+  const planes = PLANE_KINDS.flatMap((kind) => (['inclined', 'horizontal', 'vertical', 'overturned'] as const).map((v) => planeImageId(kind, v)));
+  const lines = LINE_KINDS.flatMap((kind) =>
+    (['plunging', 'horizontal', 'vertical'] as const).flatMap((v) =>
+      kind === 'hinge' ? (['antiform', 'synform', 'unknown'] as const).map((sense) => lineImageId(kind, v, sense)) : [lineImageId(kind, v)],
+    ),
+  );
+  return [...planes, ...lines];
+}
 
 /**
  * Chooses a station's symbol, its rotation and its label; null for stations that cannot be drawn

@@ -1,0 +1,73 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser, openDemo } from './browser';
+
+type DemoWindow = { foldlensDemo: { map: import('maplibre-gl').Map; foldlens: { overlay: { symbolsDrawnAtFullZoom: number } } } };
+
+/** The map's background paint, Foldlens's layer ids, symbols drawn, and the colour of a canvas pixel away from the data. */
+async function mapState(page: Page) {
+  return page.evaluate(async () => {
+    const { map, foldlens } = (window as unknown as DemoWindow).foldlensDemo;
+    await new Promise((r) => (map.loaded() ? r(null) : map.once('idle', r)));
+    const layers = map.getStyle().layers.map((l) => l.id).filter((id) => id.startsWith('foldlens-'));
+    const symbols = map.getZoom() < 15 ? map.queryRenderedFeatures({ layers: ['foldlens-symbols'] }).length : foldlens.overlay.symbolsDrawnAtFullZoom;
+    return { background: map.getPaintProperty('korvane-background', 'background-color') as string, layers, symbols };
+  });
+}
+
+/** Mean brightness (0-255) of the map's screenshot. */
+async function brightness(page: Page): Promise<number> {
+  const png = await page.locator('#map').screenshot({ type: 'png' });
+  return page.evaluate(async (b64) => {
+    const img = new Image();
+    img.src = `data:image/png;base64,${b64}`;
+    await img.decode();
+    const c = document.createElement('canvas');
+    c.width = img.width;
+    c.height = img.height;
+    const ctx = c.getContext('2d')!;
+    ctx.drawImage(img, 0, 0);
+    const d = ctx.getImageData(0, 0, c.width, c.height).data;
+    let sum = 0;
+    for (let i = 0; i < d.length; i += 4) sum += 0.3 * d[i] + 0.59 * d[i + 1] + 0.11 * d[i + 2];
+    return sum / (d.length / 4);
+  }, png.toString('base64'));
+}
+
+describe('the demo map follows the light/dark theme toggle', () => {
+  let browser: Browser;
+  let page: Page;
+  let errors: string[];
+  beforeAll(async () => {
+    browser = await launchBrowser();
+    ({ page, errors } = await openDemo(browser));
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('toggling the theme repaints the map dark and back, and the symbols are still drawn at two zooms', async () => {
+    const light = await mapState(page);
+    expect(light.symbols).toBeGreaterThan(20);
+    const lightBrightness = await brightness(page);
+    await page.locator('#theme').click();
+    expect(await page.locator('#theme').getAttribute('aria-pressed')).toBe('true');
+    await expect.poll(async () => (await mapState(page)).background).not.toBe(light.background);
+    const dark = await mapState(page);
+    expect(dark.background).toBe('#1c2124');
+    // Foldlens's layers were not dropped (the map is repainted, not restyled), and draw as many symbols.
+    expect(dark.layers).toEqual(light.layers);
+    expect(dark.symbols).toBe(light.symbols);
+    expect(await brightness(page)).toBeLessThan(lightBrightness - 40);
+    // Closer in, where one custom layer draws every symbol.
+    await page.evaluate(async () => {
+      const { map } = (window as unknown as DemoWindow).foldlensDemo;
+      map.jumpTo({ zoom: 15.3 });
+      await new Promise((r) => map.once('idle', r));
+    });
+    expect((await mapState(page)).symbols).toBeGreaterThan(5);
+    await page.locator('#theme').click();
+    await expect.poll(async () => (await mapState(page)).background).toBe(light.background);
+    expect(errors).toEqual([]);
+  });
+});
