@@ -46,7 +46,11 @@ export class StationPicker {
   nearest(map: MapLibreMap, point: { readonly x: number; readonly y: number }, radiusPx: number): number {
     if (!this.index) return -1;
     const ground = map.unproject([point.x, point.y]);
-    const [mx, my] = lonLatToMercator(ground.lng, ground.lat);
+    // The tree holds the stations in the world from -180° to 180°; a map panned across the
+    // antimeridian shows another copy of it, so look up the pointer in that world and measure
+    // each candidate in the copy of the world the pointer is in.
+    const shift = 360 * Math.floor((ground.lng + 180) / 360);
+    const [mx, my] = lonLatToMercator(ground.lng - shift, ground.lat);
     // radiusPx on screen is radiusPx / (512 * 2^zoom) of the world at the map's centre; a
     // pitched view shows more ground per pixel away from it, so ask the tree generously and
     // measure the candidates on screen.
@@ -54,8 +58,12 @@ export class StationPicker {
     const r = (radiusPx * slack) / (512 * 2 ** map.getZoom());
     let best = -1;
     let bestD2 = radiusPx * radiusPx;
-    for (const k of this.index.within(mx, my, r)) {
-      const p = map.project([this.lon[k], this.lat[k]]);
+    // Near the antimeridian the circle reaches into the neighbouring copy: look there too (x ± 1).
+    const candidates: Array<[number, number]> = this.index.within(mx, my, r).map((k) => [k, shift]);
+    if (mx - r < 0) for (const k of this.index.within(mx + 1, my, r)) candidates.push([k, shift - 360]);
+    if (mx + r > 1) for (const k of this.index.within(mx - 1, my, r)) candidates.push([k, shift + 360]);
+    for (const [k, lonShift] of candidates) {
+      const p = map.project([this.lon[k] + lonShift, this.lat[k]]);
       const d2 = (p.x - point.x) ** 2 + (p.y - point.y) ** 2;
       if (d2 <= bestD2) {
         bestD2 = d2;

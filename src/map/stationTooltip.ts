@@ -103,7 +103,9 @@ export class StationTooltip {
   private readonly place = (): void => {
     const s = this.station;
     if (!s) return;
-    const p = this.map.project([s.lon!, s.lat!]);
+    // The copy of the station nearest the view's centre (a map panned across the antimeridian).
+    const lon = s.lon! + 360 * Math.round((this.map.getCenter().lng - s.lon!) / 360);
+    const p = this.map.project([lon, s.lat!]);
     const container = this.map.getContainer();
     const w = this.element.offsetWidth;
     const h = this.element.offsetHeight;

@@ -1,5 +1,6 @@
 import type { CustomLayerInterface, CustomRenderMethodInput, Map as MapLibreMap } from 'maplibre-gl';
 import type { RasterBox, RasterImage } from './raster';
+import { lonLatToMercator } from '../core/webMercator';
 
 /**
  * Every station symbol at once, for the zooms at which every symbol is shown (no thinning, no
@@ -30,7 +31,10 @@ import type { RasterBox, RasterImage } from './raster';
  * instances: the software rasteriser draws instanced quads one instance at a time.
  *
  * Web Mercator without terrain only: {@link isSymbolGlLayerSupported} says when; the overlay
- * keeps its symbol layer for the other cases.
+ * keeps its symbol layer for the other cases. Each group of symbols is drawn in the copy of the
+ * world nearest the view's centre, so a map panned across the antimeridian shows them. After a
+ * lost WebGL context MapLibre adds its layers again: `onAdd` then builds every GPU resource anew.
+ * MapLibre's feature queries do not see the symbols drawn here; the overlay's picker finds them.
  * @example
  * const layer = new SymbolGlLayer('foldlens-symbols-gl', { minZoom: 15, sizeAt: () => 1 });
  * map.addLayer(layer);
@@ -189,8 +193,13 @@ export class SymbolGlLayer implements CustomLayerInterface {
     gl.uniform1i(this.uniforms.u_atlas, 0);
     // Tile units per CSS px at this zoom (a zoom-10 tile is 512 * 2^(zoom - 10) CSS px wide), times the size factor.
     gl.uniform1f(this.uniforms.u_scale, (EXTENT / (512 * 2 ** (zoom - GROUP_ZOOM))) * this.options.sizeAt(zoom));
+    // Each group is drawn in the copy of the world nearest the view's centre, so symbols follow
+    // a map panned across the antimeridian (the view is far narrower than half the world here).
+    const world = 2 ** GROUP_ZOOM;
+    const centreX = ((this.map!.getCenter().lng + 180) / 360) * world;
     for (const g of geometry.groups) {
-      const m = input.getProjectionData({ tileID: { canonical: { x: g.x, y: g.y, z: GROUP_ZOOM }, wrap: 0 } }).mainMatrix;
+      const wrap = Math.round((centreX - (g.x + 0.5)) / world);
+      const m = input.getProjectionData({ tileID: { canonical: { x: g.x, y: g.y, z: GROUP_ZOOM }, wrap } }).mainMatrix;
       gl.uniformMatrix4fv(this.uniforms.u_matrix, false, m instanceof Float32Array ? m : new Float32Array(m));
       gl.drawElements(gl.TRIANGLES, g.indexCount, gl.UNSIGNED_INT, g.indexStart * 4);
     }
@@ -341,11 +350,6 @@ interface Geometry {
   readonly atlas: { readonly width: number; readonly height: number; readonly data: Uint8Array };
 }
 
-function mercator(lon: number, lat: number): [number, number] {
-  const phi = (Math.max(-85.0511287798066, Math.min(85.0511287798066, lat)) * Math.PI) / 180;
-  return [(lon + 180) / 360, 0.5 - Math.log(Math.tan(Math.PI / 4 + phi / 2)) / (2 * Math.PI)];
-}
-
 function setSampling(gl: WebGL2RenderingContext, filter: number): void {
   gl.texParameteri(gl.TEXTURE_2D, gl.TEXTURE_MIN_FILTER, filter);
   gl.texParameteri(gl.TEXTURE_2D, gl.TEXTURE_MAG_FILTER, filter);
@@ -365,7 +369,7 @@ function buildGeometry(symbols: SymbolInstances, images: ReadonlyMap<number, Sym
   for (let i = 0; i < n; i++) {
     const r = rects.get(symbols.image[i]);
     if (!r) continue; // no image for this code: nothing to draw
-    const [x, y] = mercator(symbols.lon[i], symbols.lat[i]);
+    const [x, y] = lonLatToMercator(symbols.lon[i], symbols.lat[i]);
     tx[i] = x * world;
     ty[i] = y * world;
     const key = Math.floor(tx[i]) * world + Math.floor(ty[i]);

@@ -9,6 +9,7 @@ import { builtInCrs, fromLonLat } from '../../src/io/crs';
 import type { ConsistencyReport } from '../../src/core/consistency/report';
 import { pointInRing } from '../../src/core/polygon';
 import { stations as sampleRows } from '../../sample-maps/korvane/index';
+import { pngPixels } from './pngPixels';
 
 /**
  * The consistency panel of the demo, used as a geologist would on the SYNTHETIC Korvane sample
@@ -60,28 +61,12 @@ async function idle(page: Page): Promise<void> {
   );
 }
 
-/** Pixels that differ visibly between two PNG screenshots (decoded by the page's own canvas). */
+/** Pixels that differ visibly between two PNG screenshots of the same size. */
 async function differingPixels(page: Page, a: Buffer, b: Buffer): Promise<number> {
-  return page.evaluate(
-    async ([pa, pb]) => {
-      const pixels = async (b64: string): Promise<Uint8ClampedArray> => {
-        const img = new Image();
-        img.src = `data:image/png;base64,${b64}`;
-        await img.decode();
-        const canvas = document.createElement('canvas');
-        canvas.width = img.naturalWidth;
-        canvas.height = img.naturalHeight;
-        const ctx = canvas.getContext('2d')!;
-        ctx.drawImage(img, 0, 0);
-        return ctx.getImageData(0, 0, canvas.width, canvas.height).data;
-      };
-      const [p, q] = [await pixels(pa), await pixels(pb)];
-      let n = 0;
-      for (let i = 0; i < p.length; i += 4) if (Math.abs(p[i] - q[i]) + Math.abs(p[i + 1] - q[i + 1]) + Math.abs(p[i + 2] - q[i + 2]) > 30) n++;
-      return n;
-    },
-    [a.toString('base64'), b.toString('base64')] as const,
-  );
+  const [p, q] = [(await pngPixels(page, a)).data, (await pngPixels(page, b)).data];
+  let n = 0;
+  for (let i = 0; i < p.length; i += 4) if (Math.abs(p[i] - q[i]) + Math.abs(p[i + 1] - q[i + 1]) + Math.abs(p[i + 2] - q[i + 2]) > 30) n++;
+  return n;
 }
 
 /** The planted domain a sample station lies in. */

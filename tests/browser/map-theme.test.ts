@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, openDemo } from './browser';
+import { brightnessAt, pngPixels } from './pngPixels';
 
 type DemoWindow = { foldlensDemo: { map: import('maplibre-gl').Map; foldlens: { overlay: { symbolsDrawnAtFullZoom: number } } } };
 
@@ -17,21 +18,10 @@ async function mapState(page: Page) {
 
 /** Mean brightness (0-255) of the map's screenshot. */
 async function brightness(page: Page): Promise<number> {
-  const png = await page.locator('#map').screenshot({ type: 'png' });
-  return page.evaluate(async (b64) => {
-    const img = new Image();
-    img.src = `data:image/png;base64,${b64}`;
-    await img.decode();
-    const c = document.createElement('canvas');
-    c.width = img.width;
-    c.height = img.height;
-    const ctx = c.getContext('2d')!;
-    ctx.drawImage(img, 0, 0);
-    const d = ctx.getImageData(0, 0, c.width, c.height).data;
-    let sum = 0;
-    for (let i = 0; i < d.length; i += 4) sum += 0.3 * d[i] + 0.59 * d[i + 1] + 0.11 * d[i + 2];
-    return sum / (d.length / 4);
-  }, png.toString('base64'));
+  const { data } = await pngPixels(page, await page.locator('#map').screenshot({ type: 'png' }));
+  let sum = 0;
+  for (let i = 0; i < data.length; i += 4) sum += brightnessAt(data, i);
+  return sum / (data.length / 4);
 }
 
 describe('the demo map follows the light/dark theme toggle', () => {

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { inject } from 'vitest';
 import { launchBrowser } from './browser';
+import { brightnessAt, pngPixels } from './pngPixels';
 
 /**
  * From zoom 15 a custom layer draws every symbol; below it MapLibre's symbol layer does. The two
@@ -23,33 +24,17 @@ async function shot(page: Page, zoom: number, bearing: number, pitch: number): P
 
 /** Pixels that are ink (darker than the halo) in either image, and how many of them differ by more than `tolerance` in brightness. */
 async function compare(page: Page, a: Buffer, b: Buffer, tolerance: number): Promise<{ ink: number; differing: number }> {
-  return page.evaluate(
-    async ({ a, b, tolerance }) => {
-      const pixels = async (b64: string) => {
-        const img = new Image();
-        img.src = `data:image/png;base64,${b64}`;
-        await img.decode();
-        const c = document.createElement('canvas');
-        c.width = img.width;
-        c.height = img.height;
-        const ctx = c.getContext('2d')!;
-        ctx.drawImage(img, 0, 0);
-        return ctx.getImageData(0, 0, c.width, c.height).data;
-      };
-      const [pa, pb] = [await pixels(a), await pixels(b)];
-      let ink = 0;
-      let differing = 0;
-      for (let i = 0; i < pa.length; i += 4) {
-        const la = 0.3 * pa[i] + 0.59 * pa[i + 1] + 0.11 * pa[i + 2];
-        const lb = 0.3 * pb[i] + 0.59 * pb[i + 1] + 0.11 * pb[i + 2];
-        if (la > 200 && lb > 200) continue;
-        ink++;
-        if (Math.abs(la - lb) > tolerance) differing++;
-      }
-      return { ink, differing };
-    },
-    { a: a.toString('base64'), b: b.toString('base64'), tolerance },
-  );
+  const [pa, pb] = [(await pngPixels(page, a)).data, (await pngPixels(page, b)).data];
+  let ink = 0;
+  let differing = 0;
+  for (let i = 0; i < pa.length; i += 4) {
+    const la = brightnessAt(pa, i);
+    const lb = brightnessAt(pb, i);
+    if (la > 200 && lb > 200) continue;
+    ink++;
+    if (Math.abs(la - lb) > tolerance) differing++;
+  }
+  return { ink, differing };
 }
 
 describe('the custom symbol layer (zoom 15 and up) draws what the symbol layer draws below it', () => {
@@ -77,6 +62,65 @@ describe('the custom symbol layer (zoom 15 and up) draws what the symbol layer d
       await page.close();
     });
   }
+
+  it('on the next copy of the world (a map panned across the antimeridian) symbols are drawn and picked as on the first', async () => {
+    const page = await browser.newPage({ viewport: { width: 900, height: 650 } });
+    await page.goto(`${inject('demoUrl')}tests/browser/pages/symbol-angles.html`);
+    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 60_000 });
+    const home = await shot(page, 15, 30, 0);
+    // The same view, one world east: longitude 15° + 360°.
+    const shifted = await page.evaluate(async () => {
+      const w = window as unknown as { map: import('maplibre-gl').Map; stations: Array<{ id: string; lon: number; lat: number }> };
+      w.map.jumpTo({ center: [15 + 360, 46] });
+      await new Promise((r) => w.map.once('idle', r));
+      const s = w.stations[5];
+      const p = w.map.project([s.lon + 360, s.lat]);
+      return { centre: w.map.getCenter().lng, id: s.id, x: p.x, y: p.y };
+    });
+    expect(shifted.centre).toBeCloseTo(375, 6); // the map really shows the next copy
+    const copy = await page.screenshot({ type: 'png' });
+    const { ink, differing } = await compare(page, home, copy, 60);
+    expect(ink).toBeGreaterThan(16 * 60);
+    expect(differing / ink).toBeLessThan(0.03);
+    const clicked = page.evaluate(
+      () =>
+        new Promise<string>((resolve) => {
+          const w = window as unknown as { overlay: EventTarget };
+          w.overlay.addEventListener('stationclick', (e) => resolve((e as CustomEvent<{ station: { id: string } }>).detail.station.id), { once: true });
+        }),
+    );
+    await page.mouse.click(shifted.x, shifted.y);
+    expect(await clicked).toBe(shifted.id);
+    await page.close();
+  });
+
+  it('after the WebGL context is lost and restored, the custom layer draws the symbols again', async () => {
+    const page = await browser.newPage({ viewport: { width: 900, height: 650 } });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto(`${inject('demoUrl')}tests/browser/pages/symbol-angles.html`);
+    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 60_000 });
+    const before = await shot(page, 15.5, 30, 0);
+    await page.evaluate(async () => {
+      const w = window as unknown as { map: import('maplibre-gl').Map };
+      const gl = w.map.getCanvas().getContext('webgl2')!;
+      const lose = gl.getExtension('WEBGL_lose_context')!;
+      const restored = new Promise((r) => w.map.once('webglcontextrestored', r));
+      lose.loseContext();
+      await new Promise((r) => setTimeout(r, 200));
+      lose.restoreContext();
+      await restored;
+      w.map.triggerRepaint();
+      await new Promise((r) => w.map.once('idle', r));
+    });
+    const after = await page.screenshot({ type: 'png' });
+    expect(await page.evaluate(() => (window as unknown as { overlay: { symbolsDrawnAtFullZoom: number } }).overlay.symbolsDrawnAtFullZoom)).toBe(16);
+    const { ink, differing } = await compare(page, before, after, 60);
+    expect(ink).toBeGreaterThan(16 * 60);
+    expect(differing / ink).toBeLessThan(0.03);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 
   it('on a globe, where the custom layer cannot draw, the symbol layer draws every symbol at zoom 15 too', async () => {
     const page = await browser.newPage({ viewport: { width: 900, height: 650 } });
