@@ -3,7 +3,8 @@ import type { FeatureCollection } from 'geojson';
 import '../components/foldlens-consistency';
 import type { ConsistencyCheckRequest, ConsistencyFieldRequest, ConsistencyLayers, FoldlensConsistency } from '../components/foldlens-consistency';
 import { downloadBlob } from '../components/exportFiles';
-import type { DomainCheck, DomainCheckInput, DomainLine, DomainPlane, DomainSurface } from '../core/consistency/domainCheck';
+import type { DomainCheck, DomainCheckInput, DomainSurface } from '../core/consistency/domainCheck';
+import { axisFieldInputs, domainMeasurements } from '../core/consistency/domainMeasurements';
 import { buildConsistencyReport, type ConsistencyReport } from '../core/consistency/report';
 import { consistencyReportHtml } from '../core/consistency/reportHtml';
 import type { Domain } from '../core/domain';
@@ -11,11 +12,10 @@ import { foldInputFromStations } from '../core/foldInput';
 import { pointInRing } from '../core/polygon';
 import { keptRuns } from '../core/profileLayout';
 import { describeProblem, isUsable, type Station } from '../core/station';
-import { planeNormal } from '../core/vectors';
 import { builtInCrs, toLonLat } from '../io/crs';
 import type { Dem } from '../io/demSampler';
 import { lineworkHeights, type LineworkHeights } from '../io/elevations';
-import { chooseLocalFrame, lonLatToLocal, type LocalFrame } from '../io/localFrame';
+import { chooseLocalFrame, lonLatToLocal, pointInFrame, type LocalFrame } from '../io/localFrame';
 import { readLinework, type LineworkFeature } from '../io/readLinework';
 import { ANGLE_CLASSES, AxisFieldLayer, axisFieldFeatures } from '../map/axisFieldLayer';
 import { ConsistencyFlagsLayer, flagFeatures } from '../map/consistencyFlagsLayer';
@@ -120,23 +120,15 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
     const request = (e as CustomEvent<ConsistencyFieldRequest>).detail;
     panel.problem = '';
     const stations = located();
-    const fold = foldInputFromStations(stations);
-    if (fold.planes.length < Math.max(request.k, 8)) {
-      panel.problem = `The field needs at least ${Math.max(request.k, 8)} located bedding planes (the window); there are ${fold.planes.length}.`;
+    const planeCount = foldInputFromStations(stations).planes.length;
+    if (planeCount < Math.max(request.k, 8)) {
+      panel.problem = `The field needs at least ${Math.max(request.k, 8)} located bedding planes (the window); there are ${planeCount}.`;
       return;
     }
     panel.busy = 'field';
     try {
       const frame = frameOf(stations);
-      const xy = new Float64Array(2 * fold.planes.length);
-      const poles = new Float64Array(3 * fold.planes.length);
-      Array.from(fold.planeIds).forEach((i, k) => {
-        const p = lonLatToLocal(frame, [stations[i].lon!, stations[i].lat!], [0]);
-        xy[2 * k] = p[0];
-        xy[2 * k + 1] = p[1];
-        const v = planeNormal(fold.planes[k]);
-        poles.set([v.x, v.y, v.z], 3 * k);
-      });
+      const { xy, poles } = axisFieldInputs(stations, (s) => pointInFrame(frame, s.lon!, s.lat!));
       let [minX, minY, maxX, maxY] = [Infinity, Infinity, -Infinity, -Infinity];
       for (let i = 0; i < xy.length; i += 2) {
         minX = Math.min(minX, xy[i]);
@@ -153,7 +145,7 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
       const ny = w >= h ? Math.max(1, Math.round((request.grid * h) / w)) : request.grid;
       const result = await client.field({ xy, poles, nx, ny, k: request.k, bounds, angle: request.angle, minShare: request.minShare, ...(request.reference && { reference: request.reference }) });
       if (!result) return; // a newer request took over
-      field = { stations: deps.stations(), result, frame, planes: fold.planes.length, reference: request.reference ? `${lineText(request.reference)} (given)` : `${lineText(result.field.reference)} (pi axis of all planes)` };
+      field = { stations: deps.stations(), result, frame, planes: planeCount, reference: request.reference ? `${lineText(request.reference)} (given)` : `${lineText(result.field.reference)} (pi axis of all planes)` };
       showField(field);
     } catch (error) {
       fail(error);
@@ -271,17 +263,8 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
     for (const area of areas) {
       const flat = area.ring ? Float64Array.from(area.ring.flat()) : null;
       const chosen = flat ? stations.filter((s) => pointInRing(s.lon!, s.lat!, flat)) : stations;
-      const fold = foldInputFromStations(chosen);
-      if (fold.planes.length === 0) continue;
-      const place = (s: Station) => {
-        const p = lonLatToLocal(frame, [s.lon!, s.lat!], [0]);
-        return { x: p[0], y: p[1] };
-      };
-      const planes = Array.from(fold.planeIds, (i, k): DomainPlane => ({ ...fold.planes[k], id: chosen[i].id, ...place(chosen[i]) }));
-      const lines = Array.from(fold.lineIds, (i, k): DomainLine => {
-        const sense = chosen[i].line?.sense;
-        return { trend: fold.lines[k].trend, plunge: fold.lines[k].plunge, id: chosen[i].id, ...(sense !== undefined && { sense }), ...place(chosen[i]) };
-      });
+      const { planes, lines } = domainMeasurements(chosen, (s) => pointInFrame(frame, s.lon!, s.lat!));
+      if (planes.length === 0) continue;
       const surfaces = 'problem' in t ? [] : surfacesIn(t, area, frame);
       inputs.push({ id: area.id, name: area.name, planes, lines, ...(surfaces.length > 0 && { surfaces }), convergence: frame.convergence });
     }

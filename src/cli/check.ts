@@ -1,21 +1,21 @@
 import { booleanPointInPolygon, point } from '@turf/turf';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
-import { checkDomain, type DomainCheck, type DomainCheckOptions, type DomainLine, type DomainPlane, type DomainSurface } from '../core/consistency/domainCheck';
+import { checkDomain, type DomainCheck, type DomainCheckOptions, type DomainSurface } from '../core/consistency/domainCheck';
+import { axisFieldInputs, domainMeasurements } from '../core/consistency/domainMeasurements';
 import { partitionAxisField } from '../core/consistency/domainBoundaries';
 import { localAxisField } from '../core/consistency/localAxisField';
 import { buildConsistencyReport, CONSISTENCY_CAUTION, type ConsistencyReport } from '../core/consistency/report';
 import { consistencyReportHtml } from '../core/consistency/reportHtml';
-import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS, foldInputFromStations } from '../core/foldInput';
+import { DEFAULT_AXIS_LINE_KINDS, DEFAULT_FOLDED_KINDS } from '../core/foldInput';
 import { formatLine } from '../core/notation';
 import { keptRuns } from '../core/profileLayout';
-import { isUsable } from '../core/station';
+import { isUsable, type Station } from '../core/station';
 import { isLineKind, isPlaneKind, LINE_KINDS, PLANE_KINDS, type MeasurementKind } from '../core/types';
-import { planeNormal } from '../core/vectors';
 import { CrsError, toLonLat } from '../io/crs';
 import { parseIsoDate } from '../io/declination';
 import { lineworkHeights } from '../io/elevations';
 import { normalizeKind } from '../io/kinds';
-import { chooseLocalFrame, lonLatToLocal, type LocalFrame } from '../io/localFrame';
+import { chooseLocalFrame, lonLatToLocal, pointInFrame, type LocalFrame } from '../io/localFrame';
 import type { LineworkFeature } from '../io/readLinework';
 import { AreaError, readPolygons, selectWithin } from '../io/within';
 import { formatOptions, parseArgs, UsageError, type OptionSpec } from './args';
@@ -161,16 +161,8 @@ export async function runCheck(argv: readonly string[], io: CliIo): Promise<numb
   const counts: Record<string, number> = {};
   for (const area of areas) {
     const chosen = area.polygon ? selectWithin(usable, [area.polygon]).inside : usable;
-    const fold = foldInputFromStations(chosen, undefined, { planeKinds, lineKinds });
-    const planes: DomainPlane[] = Array.from(fold.planeIds, (i, k) => {
-      const s = chosen[i];
-      return { ...fold.planes[k], id: s.id, ...(frame && s.lon !== undefined && s.lat !== undefined && localXY(frame, s.lon, s.lat)) };
-    });
-    const lines: DomainLine[] = Array.from(fold.lineIds, (i, k) => {
-      const s = chosen[i];
-      const sense = s.line?.sense;
-      return { trend: fold.lines[k].trend, plunge: fold.lines[k].plunge, id: s.id, ...(sense !== undefined && { sense }), ...(frame && s.lon !== undefined && s.lat !== undefined && localXY(frame, s.lon, s.lat)) };
-    });
+    const place = (s: Station) => (frame && s.lon !== undefined && s.lat !== undefined ? pointInFrame(frame, s.lon, s.lat) : undefined);
+    const { planes, lines } = domainMeasurements(chosen, place, { planeKinds, lineKinds });
     counts[`${area.id} planes`] = planes.length;
     counts[`${area.id} lines`] = lines.length;
     if (planes.length === 0) {
@@ -189,21 +181,10 @@ export async function runCheck(argv: readonly string[], io: CliIo): Promise<numb
 
   let field: Parameters<typeof buildConsistencyReport>[0]['field'];
   if (o['skip-field'] === undefined && frame) {
-    const all = foldInputFromStations(located, undefined, { planeKinds, lineKinds });
-    if (all.planes.length < 2 * fieldK) {
-      tell(`local axis field skipped: ${all.planes.length} located planes, fewer than twice the window of ${fieldK} (--field-k)`, false);
+    const { xy, poles, count } = axisFieldInputs(located, (s) => pointInFrame(frame!, s.lon!, s.lat!), { planeKinds, lineKinds });
+    if (count < 2 * fieldK) {
+      tell(`local axis field skipped: ${count} located planes, fewer than twice the window of ${fieldK} (--field-k)`, false);
     } else {
-      const xy = new Float64Array(2 * all.planes.length);
-      const poles = new Float64Array(3 * all.planes.length);
-      Array.from(all.planeIds).forEach((i, k) => {
-        const p = localXY(frame!, located[i].lon!, located[i].lat!);
-        xy[2 * k] = p.x;
-        xy[2 * k + 1] = p.y;
-        const v = planeNormal(all.planes[k]);
-        poles[3 * k] = v.x;
-        poles[3 * k + 1] = v.y;
-        poles[3 * k + 2] = v.z;
-      });
       const [minX, minY, maxX, maxY] = extent(xy);
       const wide = maxX - minX >= maxY - minY;
       const span = Math.max(maxX - minX, maxY - minY) || 1;
@@ -252,12 +233,6 @@ export async function runCheck(argv: readonly string[], io: CliIo): Promise<numb
     code = Math.max(code, 1);
   }
   return code;
-}
-
-/** Frame coordinates of a station (east, north metres from the frame origin). */
-function localXY(frame: LocalFrame, lon: number, lat: number): { x: number; y: number } {
-  const p = lonLatToLocal(frame, [lon, lat], [0]);
-  return { x: p[0], y: p[1] };
 }
 
 /** Trace pieces inside a domain (all, without one), with heights, grouped by surface; `lone` counts runs of one vertex, left out. */

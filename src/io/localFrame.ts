@@ -88,6 +88,15 @@ export function lonLatToLocal(frame: LocalFrame, lonLat: ArrayLike<number>, heig
 }
 
 /**
+ * One point's place in the frame: metres east and north of the frame's origin.
+ * @example const { x, y } = pointInFrame(frame, station.lon, station.lat); // metres east and north of the origin
+ */
+export function pointInFrame(frame: LocalFrame, lon: number, lat: number): { x: number; y: number } {
+  const p = lonLatToLocal(frame, [lon, lat], [0]);
+  return { x: p[0], y: p[1] };
+}
+
+/**
  * An axis referred to true north, turned to the frame's grid north: trend - convergence.
  * @example gridAxis(frame, { trend: 74.994, plunge: 12 }) // { trend: 75.000..., plunge: 12 } at Korvane
  */
