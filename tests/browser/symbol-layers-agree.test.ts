@@ -82,15 +82,13 @@ describe('the custom symbol layer (zoom 15 and up) draws what the symbol layer d
     const { ink, differing } = await compare(page, home, copy, 60);
     expect(ink).toBeGreaterThan(16 * 60);
     expect(differing / ink).toBeLessThan(0.03);
-    const clicked = page.evaluate(
-      () =>
-        new Promise<string>((resolve) => {
-          const w = window as unknown as { overlay: EventTarget };
-          w.overlay.addEventListener('stationclick', (e) => resolve((e as CustomEvent<{ station: { id: string } }>).detail.station.id), { once: true });
-        }),
-    );
+    // The listener is in place before the click, and the answer is polled (a missed click fails, it does not hang).
+    await page.evaluate(() => {
+      const w = window as unknown as { overlay: EventTarget; clickedStation?: string };
+      w.overlay.addEventListener('stationclick', (e) => (w.clickedStation = (e as CustomEvent<{ station: { id: string } }>).detail.station.id));
+    });
     await page.mouse.click(shifted.x, shifted.y);
-    expect(await clicked).toBe(shifted.id);
+    await expect.poll(() => page.evaluate(() => (window as unknown as { clickedStation?: string }).clickedStation), { timeout: 15_000 }).toBe(shifted.id);
     await page.close();
   });
 
