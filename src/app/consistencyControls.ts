@@ -40,6 +40,11 @@ export interface ConsistencyDeps {
   /** Contact traces of the base map (lon/lat), and the terrain model that gives them heights. */
   readonly contacts: FeatureCollection;
   readonly dem: () => Promise<Dem>;
+  /**
+   * Whether the base map's contacts and terrain belong to the stations shown (the sample map
+   * under its own stations); when not, the map-pattern checks leave them out and say why.
+   */
+  readonly mapLinesApply: () => boolean;
   /** A label for the data set shown, for the report. */
   readonly datasetLabel: () => string;
 }
@@ -68,7 +73,7 @@ const lineText = (l: { trend: number; plunge: number } | null): string => (l ? `
 
 /**
  * Wires the consistency panel to the map and the worker.
- * @example setUpConsistency({ map, panel, stations: () => stations, domains: () => domains, saveDomains, contacts, dem, datasetLabel })
+ * @example setUpConsistency({ map, panel, stations: () => stations, domains: () => domains, saveDomains, contacts, dem, mapLinesApply: () => true, datasetLabel })
  */
 export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () => string | null } {
   const { map, panel } = deps;
@@ -256,9 +261,11 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
     if (stations.length === 0) throw new Error('No located station to check.');
     const frame = frameOf(stations);
     const { areas, source } = areasToCheck();
-    const key = JSON.stringify([request, areas, stations.length, deps.stations().length, frame.originEasting, frame.originNorthing]);
+    const mapLines = deps.mapLinesApply();
+    const key = JSON.stringify([request, areas, stations.length, deps.stations().length, frame.originEasting, frame.originNorthing, mapLines]);
     if (lastChecks && lastChecks.key === key && lastChecks.stations === deps.stations()) return lastChecks;
-    const t = await contactTraces();
+    // Another district's contacts under these stations would make the map-pattern checks say nothing true.
+    const t: TraceSet = mapLines ? await contactTraces() : { problem: "the base map's contacts and terrain belong to the sample district, not to the data shown" };
     const inputs: DomainCheckInput[] = [];
     for (const area of areas) {
       const flat = area.ring ? Float64Array.from(area.ring.flat()) : null;

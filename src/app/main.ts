@@ -36,6 +36,7 @@ import { newDomainId, nextDomainName, type Domain } from '../core/domain';
 import '../components/foldlens-selections';
 import type { ProjectSelection, SelectionShape } from '../io/projectFile';
 import { namedSelection, newSelectionId, nextSelectionName, resolveSelection, selectionAppliesTo } from '../io/namedSelection';
+import { drawnLinesOf, withDrawnLines } from '../io/drawnLines';
 import type { ShapeEventDetail } from '../map/selectionDrawer';
 
 configureMapLibre();
@@ -346,6 +347,9 @@ const store = openProjectStore();
 const autosave = new Autosave(store, { onState: (state) => (document.body.dataset.saveState = state) });
 let project: FoldlensProject = emptyProject('Field data');
 
+/** Whether the stations shown are the sample map's own (so its contacts, faults and terrain lie under them). */
+let sampleShown = true;
+
 /** Puts a set of stations on the map and in every panel. */
 function showStations(next: Station[], label: string): void {
   stations = next;
@@ -363,29 +367,37 @@ function showProject(p: FoldlensProject): void {
   const d: ProjectDataset | null = p.datasets.at(-1) ?? null;
   table.data = d;
   importEl.current = d && reportOf(d);
-  if (d) showStations([...d.stations], `${d.name} — ${d.stations.length} rows (your data, saved in this browser)`);
+  if (d) {
+    showStations([...d.stations], `${d.name} — ${d.stations.length} rows (your data, saved in this browser)`);
+    sampleShown = false;
+    profileTools.useSampleMap(false); // the sample's contacts, faults and terrain are not under these stations
+  }
   showSelections();
 }
 
 function showSample(): void {
   table.data = null;
   showStations(loadSampleStations(), `${truth.district} — synthetic demo data`);
+  sampleShown = true;
+  profileTools.useSampleMap(true);
   showSelections();
 }
 
 importEl.addEventListener('foldlens-import', (e) => {
-  // A new file replaces the data; the domains (map areas) stay.
-  showProject(withDataset({ ...emptyProject(project.name), domains: project.domains }, (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset));
+  // A new file replaces the data; the domains (map areas) and the lines drawn on the map stay.
+  showProject(withDataset(withDrawnLines({ ...emptyProject(project.name), domains: project.domains }, drawnLinesOf(project)), (e as CustomEvent<{ dataset: ProjectDataset }>).detail.dataset));
   autosave.schedule(project);
 });
 importEl.addEventListener('foldlens-project-open', (e) => {
   showProject((e as CustomEvent<{ project: FoldlensProject }>).detail.project);
+  profileTools.restoreLines(drawnLinesOf(project));
   void setDomains(project.domains as unknown as Domain[]);
 });
 $<HTMLButtonElement>('#back-to-sample').addEventListener('click', async () => {
   await store.clear();
   project = emptyProject('Field data');
   showSample();
+  profileTools.restoreLines(drawnLinesOf(project));
   void setDomains([], false);
 });
 table.addEventListener('foldlens-row-select', (e) => {
@@ -413,6 +425,7 @@ map.on('load', async () => {
   else showSample();
   if (saved) project = saved.project;
   showSelections();
+  profileTools.restoreLines(drawnLinesOf(project));
   // Domains saved with the project (opaque in the file format; written only by this viewer).
   void setDomains((saved?.project.domains ?? []) as unknown as Domain[], false);
   map.once('idle', () => {
@@ -443,6 +456,10 @@ const profileTools = setUpProfileTools({
     foldlens.setTool(null);
     toolbar.tool = 'pan';
   },
+  linesEdited: (lines) => {
+    project = withDrawnLines(project, lines);
+    autosave.schedule(project);
+  },
 });
 foldlens.addEventListener('stationhover', (e) => (profile.highlight = (e as CustomEvent<StationEventDetail>).detail.index));
 profile.addEventListener('foldlens-profile-hover', (e) => foldlens.overlay.setHighlight((e as CustomEvent<{ index: number }>).detail.index));
@@ -466,5 +483,6 @@ const consistency = setUpConsistency({
   },
   contacts,
   dem: sampleDem,
+  mapLinesApply: () => sampleShown,
   datasetLabel: () => $<HTMLElement>('#dataset-label').textContent ?? '',
 });

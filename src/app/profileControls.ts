@@ -3,6 +3,11 @@
  * project, the down-plunge profile of the selection or of a domain, and the vertical section
  * along a line drawn on the map with its swath. Every number comes from buildProfileData
  * (src/map/profileData.ts); this file only connects the page's controls to it.
+ *
+ * The sample map's contacts, faults and terrain model belong to the sample district: they are
+ * offered only while the sample's stations are shown ({@link ProfileTools.useSampleMap}), never
+ * projected under the user's own data. The section line and the traces are kept with the
+ * project (`linesEdited`, {@link ProfileTools.restoreLines}).
  */
 import { length as turfLength, lineString } from '@turf/turf';
 import type { FeatureCollection } from 'geojson';
@@ -15,6 +20,8 @@ import type { LonLatPair } from '../core/sectionLineDraft';
 import type { Station } from '../core/station';
 import type { Line } from '../core/types';
 import type { Dem } from '../io/demSampler';
+import type { DrawnLines } from '../io/drawnLines';
+import { MAX_SECTION_SWATH } from '../io/projectFile';
 import '../components/foldlens-axis-picker';
 import type { FoldlensProfile } from '../components/foldlens-profile';
 import type { AxisChoice } from '../components/profile/axisChoice';
@@ -32,13 +39,15 @@ export interface ProfileToolsDeps {
   readonly profileBox: HTMLDialogElement;
   /** The stations shown now. */
   readonly stations: () => readonly Station[];
-  /** The map's line layers that may be projected. */
+  /** The sample map's line layers that may be projected (only while the sample is shown). */
   readonly contacts: FeatureCollection;
   readonly faults: FeatureCollection;
-  /** The terrain model (loaded once, on first use). */
+  /** The sample map's terrain model (loaded once, on first use; only while the sample is shown). */
   readonly dem: () => Promise<Dem>;
   /** Puts the selection tools back to panning (the section line takes the pointer). */
   readonly panTool: () => void;
+  /** The user drew, replaced or cleared a trace or the section line, or changed its swath: keep them with the project. */
+  readonly linesEdited: (lines: DrawnLines) => void;
 }
 
 /** What the page asks of the block. */
@@ -49,10 +58,18 @@ export interface ProfileTools {
   selectionAnalysed(indices: Int32Array, analysis: FoldAnalysis | null): void;
   /** Saved domains changed. */
   setDomains(domains: readonly Domain[]): void;
+  /**
+   * Whether the stations shown are the sample map's. With other data the sample's contacts,
+   * faults and terrain model are not used: their boxes are unticked and disabled with the reason
+   * beside them; with the sample again they are offered as they were.
+   */
+  useSampleMap(sampleShown: boolean): void;
+  /** Puts a project's traces and section line on the map in place of those there (nothing is saved). */
+  restoreLines(lines: DrawnLines): void;
 }
 
-/** Largest swath half-width accepted, metres: wider is no longer a section of one fold train. */
-const MAX_SWATH = 20_000;
+/** Largest swath half-width accepted, metres (the project file's limit). */
+const MAX_SWATH = MAX_SECTION_SWATH;
 
 type View =
   | { readonly kind: 'area'; readonly ring: ReadonlyArray<readonly [number, number]>; readonly what: string }
@@ -67,7 +84,7 @@ const byId = <T extends HTMLElement>(id: string): T => {
 /**
  * Connects the block's controls (index.html, "Profiles and sections") to the map and the
  * profile panel.
- * @example const tools = setUpProfileTools({ map, foldlens, profile, profileBox, stations: () => stations, contacts, faults, dem, panTool });
+ * @example const tools = setUpProfileTools({ map, foldlens, profile, profileBox, stations: () => stations, contacts, faults, dem, panTool, linesEdited: (lines) => save(lines) });
  */
 export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   const { map, foldlens, profile, profileBox } = deps;
@@ -77,6 +94,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   const domainButton = byId<HTMLButtonElement>('profile-domain-button');
   const useContacts = byId<HTMLInputElement>('profile-contacts');
   const useFaults = byId<HTMLInputElement>('profile-faults');
+  const sampleLinesNote = byId<HTMLElement>('profile-lines-note');
   const swathInput = byId<HTMLInputElement>('section-swath');
   const swathProblem = byId<HTMLElement>('section-swath-problem');
   const drawButton = byId<HTMLButtonElement>('section-draw');
@@ -90,6 +108,9 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   let view: View | null = null;
   let swath = DEFAULT_SWATH;
   swathInput.value = String(DEFAULT_SWATH);
+  let sampleShown = true;
+  // Whether each sample layer was ticked when other data came in, to offer it the same way again.
+  const tickedOnSample = new Map<HTMLInputElement, boolean>();
 
   const drawer = new SectionLineDrawer(map, { swath });
 
@@ -110,11 +131,14 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
     const what = next.kind === 'area' ? next.what : `Section ${metresText(turfLength(lineString(next.line.map((p) => [p[0], p[1]])), { units: 'kilometers' }) * 1000)}, ${next.line.length} points`;
     const label = `${what} — axis ${axisText(axis)}: ${choice.from}`;
     try {
+      // The sample's lines and terrain only under the sample's own stations (see useSampleMap).
+      const withContacts = sampleShown && useContacts.checked;
+      const withFaults = sampleShown && useFaults.checked;
       const data = buildProfileData({
         stations: deps.stations(),
-        contacts: { type: 'FeatureCollection', features: [...(useContacts.checked ? deps.contacts.features : []), ...traces.features()] },
-        ...(useFaults.checked && { faults: deps.faults }),
-        dem: await deps.dem(),
+        contacts: { type: 'FeatureCollection', features: [...(withContacts ? deps.contacts.features : []), ...traces.features()] },
+        ...(withFaults && { faults: deps.faults }),
+        dem: sampleShown ? await deps.dem() : null,
         axis,
         ...(next.kind === 'area' ? { ring: next.ring } : { section: { line: next.line, swath } }),
         label,
@@ -125,8 +149,9 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
       profileBox.setAttribute('aria-label', next.kind === 'area' ? 'Down-plunge profile' : 'Vertical section');
       profileBox.show(); // not modal: the map stays live for hover linking and for drawing the next line
       const drawn = traces.features().length;
-      const layers = [useContacts.checked && 'contacts', useFaults.checked && 'faults', drawn > 0 && `${drawn} drawn trace${drawn === 1 ? '' : 's'}`].filter(Boolean).join(' and ') || 'no map lines';
-      say(`${next.kind === 'area' ? 'Profile' : 'Section'} drawn with axis ${axisText(axis)}; ${layers} projected.`);
+      const layers = [withContacts && 'contacts', withFaults && 'faults', drawn > 0 && `${drawn} drawn trace${drawn === 1 ? '' : 's'}`].filter(Boolean).join(' and ') || 'no map lines';
+      const terrain = sampleShown ? '' : ' No terrain model: heights come from your data only (the sample map\'s terrain is not used).';
+      say(`${next.kind === 'area' ? 'Profile' : 'Section'} drawn with axis ${axisText(axis)}; ${layers} projected.${terrain}`);
     } catch (e) {
       say(`The ${next.kind === 'area' ? 'profile' : 'section'} could not be drawn: ${e instanceof Error ? e.message : String(e)}`, true);
     }
@@ -139,6 +164,12 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
 
   // ---- Axis, line layers, swath ----------------------------------------------------------------
 
+  /** The lines as the project keeps them. */
+  function drawnLines(): DrawnLines {
+    return { traces: traces.records(), sectionLine: drawer.line ? { line: drawer.line.map((p) => [p[0], p[1]] as const), swath } : null };
+  }
+  const edited = (): void => deps.linesEdited(drawnLines());
+
   const traces = setUpTraceTools({
     map,
     say,
@@ -148,6 +179,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
       profileBox.close(); // the whole map is needed to draw on
     },
     changed: redraw,
+    edited,
   });
 
   function updateDomainButton(): void {
@@ -170,6 +202,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
     if (!read.ok) return;
     swath = read.value;
     drawer.setSwath(swath);
+    if (drawer.line) edited();
     if (view?.kind === 'section') redraw();
   });
 
@@ -242,6 +275,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
     }
     drawingUi(false);
     say('Section line cleared.');
+    edited();
   });
 
   drawer.addEventListener('sectionstart', () => {
@@ -260,6 +294,7 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
   drawer.addEventListener('sectionproblem', (e) => say((e as CustomEvent<{ message: string }>).detail.message, true));
   drawer.addEventListener('sectionend', (e) => {
     drawingUi(false);
+    edited();
     void show({ kind: 'section', line: (e as CustomEvent<{ vertices: readonly LonLatPair[] }>).detail.vertices });
   });
 
@@ -282,6 +317,38 @@ export function setUpProfileTools(deps: ProfileToolsDeps): ProfileTools {
       picker.domains = next.map((d) => ({ id: d.id, name: d.name, axis: d.analysis?.axis ?? null, cone95: d.analysis?.cone95 ?? null }));
       if (!next.some((d) => d.id === picker.domainId)) picker.domainId = next[0]?.id ?? '';
       updateDomainButton();
+    },
+    useSampleMap(shown: boolean): void {
+      if (shown === sampleShown) return;
+      sampleShown = shown;
+      for (const box of [useContacts, useFaults]) {
+        if (!shown) tickedOnSample.set(box, box.checked);
+        box.checked = shown ? (tickedOnSample.get(box) ?? true) : false;
+        box.disabled = !shown;
+        if (shown) box.removeAttribute('aria-describedby');
+        else box.setAttribute('aria-describedby', sampleLinesNote.id);
+      }
+      sampleLinesNote.hidden = shown;
+      if (view && profileBox.open) redraw();
+      else say(''); // what the status said of the last drawing is not true of these stations
+    },
+    restoreLines(lines: DrawnLines): void {
+      drawer.cancel();
+      traces.restore(lines.traces);
+      if (lines.sectionLine) {
+        swath = lines.sectionLine.swath;
+        swathInput.value = String(swath);
+        swathInput.setAttribute('aria-invalid', 'false');
+        swathProblem.hidden = true;
+        drawer.setSwath(swath);
+      }
+      drawer.setLine(lines.sectionLine?.line ?? null);
+      // An open section of the line replaced is no longer what the map shows.
+      if (view?.kind === 'section') {
+        view = null;
+        profileBox.close();
+      } else redraw();
+      drawingUi(false);
     },
   };
 }

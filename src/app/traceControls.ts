@@ -3,11 +3,14 @@
  * or form line seen in the field but not in the map's data) to be projected with the
  * stations into the down-plunge profile or a section. Each trace is drawn with its own
  * SectionLineDrawer (no swath), stays on the map, and is handed to buildProfileData as
- * contact linework named "Drawn trace k", so the profile's legend lists it as its own layer.
+ * contact linework under its name ("Drawn trace k"), so the profile's legend lists it as its own
+ * layer. The traces are kept with the project (io/drawnLines.ts) and put back on the map on load.
  */
 import type { Feature, LineString } from 'geojson';
 import type { Map as MapLibreMap } from 'maplibre-gl';
 import type { LonLatPair } from '../core/sectionLineDraft';
+import { newTraceId, nextTraceName } from '../io/drawnLines';
+import type { ProjectTrace } from '../io/projectFile';
 import { SectionLineDrawer } from '../map/sectionLineDrawer';
 
 /** What the trace controls need from the page. */
@@ -19,6 +22,8 @@ export interface TraceToolsDeps {
   readonly beforeDraw: () => void;
   /** The set of traces changed (redraw an open profile). */
   readonly changed: () => void;
+  /** A trace was kept or the traces cleared by the user (save them with the project). */
+  readonly edited: () => void;
 }
 
 /** The drawn traces, for the profile. */
@@ -29,6 +34,10 @@ export interface TraceTools {
   features(): Array<Feature<LineString, { name: string }>>;
   /** Stops a trace being drawn (another tool takes the pointer). */
   cancel(): void;
+  /** Every finished trace, whether or not the box is ticked, as the project keeps them. */
+  records(): ProjectTrace[];
+  /** Puts these traces on the map in place of those there (a project was loaded); fires neither `changed` nor `edited`. */
+  restore(traces: readonly ProjectTrace[]): void;
 }
 
 /** Dark green: apart from the section's blue, the selection's orange and the domains' violet. */
@@ -42,7 +51,7 @@ const byId = <T extends HTMLElement>(id: string): T => {
 
 /**
  * Connects the "Trace a line" controls (index.html) to the map.
- * @example const traces = setUpTraceTools({ map, say, beforeDraw: () => panTool(), changed: redraw });
+ * @example const traces = setUpTraceTools({ map, say, beforeDraw: () => panTool(), changed: redraw, edited: save });
  */
 export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
   const use = byId<HTMLInputElement>('profile-traces');
@@ -52,9 +61,15 @@ export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
   const finishButton = byId<HTMLButtonElement>('trace-finish');
   const cancelButton = byId<HTMLButtonElement>('trace-cancel');
   const clearButton = byId<HTMLButtonElement>('trace-clear');
-  const finished: Array<{ drawer: SectionLineDrawer; line: readonly LonLatPair[] }> = [];
+  const finished: Array<{ drawer: SectionLineDrawer; id: string; name: string; line: readonly LonLatPair[] }> = [];
   let current: SectionLineDrawer | null = null;
   let made = 0;
+
+  /** A drawer of its own for each trace, so each keeps its line on the map. */
+  function newDrawer(): SectionLineDrawer {
+    made += 1;
+    return new SectionLineDrawer(deps.map, { idPrefix: `foldlens-trace-${made}`, color: TRACE_COLOUR, swath: 0 });
+  }
 
   function ui(): void {
     const drawing = current !== null;
@@ -68,8 +83,7 @@ export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
 
   function start(): void {
     deps.beforeDraw();
-    made += 1;
-    const drawer = new SectionLineDrawer(deps.map, { idPrefix: `foldlens-trace-${made}`, color: TRACE_COLOUR, swath: 0 });
+    const drawer = newDrawer();
     current = drawer;
     drawer.addEventListener('sectionchange', () => {
       ui();
@@ -84,10 +98,12 @@ export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
     });
     drawer.addEventListener('sectionproblem', (e) => deps.say((e as CustomEvent<{ message: string }>).detail.message, true));
     drawer.addEventListener('sectionend', (e) => {
-      finished.push({ drawer, line: (e as CustomEvent<{ vertices: readonly LonLatPair[] }>).detail.vertices });
+      const name = nextTraceName(finished);
+      finished.push({ drawer, id: newTraceId(), name, line: (e as CustomEvent<{ vertices: readonly LonLatPair[] }>).detail.vertices });
       current = null;
       ui();
-      deps.say(`Trace ${finished.length} kept; it is projected with the map lines while "Traces drawn on the map" is ticked.`);
+      deps.say(`${name} kept; it is projected with the map lines while "Traces drawn on the map" is ticked.`);
+      deps.edited();
       deps.changed();
     });
     drawer.start();
@@ -107,6 +123,7 @@ export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
     finished.length = 0;
     ui();
     deps.say('Traces cleared.');
+    deps.edited();
     deps.changed();
   });
   use.addEventListener('change', deps.changed);
@@ -125,11 +142,27 @@ export function setUpTraceTools(deps: TraceToolsDeps): TraceTools {
     },
     features() {
       if (!use.checked) return [];
-      return finished.map((t, k) => ({
+      return finished.map((t) => ({
         type: 'Feature',
-        properties: { name: `Drawn trace ${k + 1}` },
+        properties: { name: t.name },
         geometry: { type: 'LineString', coordinates: t.line.map((p) => [p[0], p[1]]) },
       }));
+    },
+    records() {
+      return finished.map((t) => ({ id: t.id, name: t.name, line: t.line.map((p) => [p[0], p[1]] as const) }));
+    },
+    restore(traces) {
+      current?.cancel();
+      for (const t of finished) t.drawer.remove();
+      finished.length = 0;
+      for (const t of traces) {
+        const drawer = newDrawer();
+        drawer.setLine(t.line);
+        // The project file was checked (two different positions at least), so the drawer keeps the line.
+        if (drawer.line) finished.push({ drawer, id: t.id, name: t.name, line: drawer.line });
+        else drawer.remove();
+      }
+      ui();
     },
   };
 }

@@ -9,7 +9,8 @@ import type { GivenLocation } from './readStations';
  * The Foldlens project file: one JSON document, `"format": "foldlens-project"`, `"version": 1`,
  * holding everything needed to pick the work up again: the stations of every imported file
  * (each with its original fields, problems and azimuth corrections), how the file was read
- * (column mapping and options), the cell edits made since, named selections, and map domains.
+ * (column mapping and options), the cell edits made since, named selections, map domains, and
+ * the lines drawn on the map (traces to project, the last section line with its swath).
  * docs/project-format.md describes every field; this module is its reference implementation.
  *
  * Reading checks the whole document and throws {@link ProjectFileError} naming the path of the
@@ -135,6 +136,29 @@ export interface ProjectDomain {
   readonly [extra: string]: unknown;
 }
 
+/** Largest swath half-width of a section line, metres: wider is no longer a section of one fold train. */
+export const MAX_SECTION_SWATH = 20_000;
+
+/**
+ * A line traced on the map (a contact or form line seen in the field), projected with the
+ * stations into profiles and sections as a layer of its own, under its name.
+ */
+export interface ProjectTrace {
+  readonly id: string;
+  /** Legend text, e.g. "Drawn trace 1" (data text: shown as text only). */
+  readonly name: string;
+  /** [longitude, latitude] vertices in order, at least two distinct. */
+  readonly line: readonly (readonly [number, number])[];
+}
+
+/** The section line drawn on the map and the swath about it. */
+export interface ProjectSectionLine {
+  /** [longitude, latitude] vertices in order, at least two distinct. */
+  readonly line: readonly (readonly [number, number])[];
+  /** Swath half-width, metres: more than 0, at most {@link MAX_SECTION_SWATH}. */
+  readonly swath: number;
+}
+
 /** A whole project. */
 export interface FoldlensProject {
   readonly format: typeof PROJECT_FORMAT;
@@ -145,6 +169,10 @@ export interface FoldlensProject {
   readonly datasets: readonly ProjectDataset[];
   readonly selections: readonly ProjectSelection[];
   readonly domains: readonly ProjectDomain[];
+  /** Lines traced on the map; absent when there are none (and in files written before they were kept). */
+  readonly traces?: readonly ProjectTrace[];
+  /** The last section line drawn; absent when there is none. */
+  readonly sectionLine?: ProjectSectionLine;
 }
 
 /**
@@ -274,7 +302,7 @@ export function checkProject(json: unknown): FoldlensProject {
       `this project was written in format version ${p.version as number}, newer than this Foldlens reads (version ${PROJECT_VERSION} and older); open it with a newer Foldlens`,
     );
   }
-  known(p, '', ['format', 'version', 'name', 'savedAt', 'datasets', 'selections', 'domains']);
+  known(p, '', ['format', 'version', 'name', 'savedAt', 'datasets', 'selections', 'domains', 'traces', 'sectionLine']);
   text(p.name, 'name', 'the project name');
   if (typeof p.savedAt !== 'string' || Number.isNaN(Date.parse(p.savedAt))) expected('savedAt', 'a date and time, ISO 8601', p.savedAt);
   const datasets = array(p.datasets, 'datasets', 'a list of datasets');
@@ -297,6 +325,16 @@ export function checkProject(json: unknown): FoldlensProject {
     if (domainIds.has(id)) fail(`domains[${i}].id`, `the id "${id}" is used by two domains`);
     domainIds.add(id);
   });
+  // Traces and the section line came after the first files of version 1: both optional.
+  if (p.traces !== undefined) {
+    const traceIds = new Set<string>();
+    array(p.traces, 'traces', 'a list of traces').forEach((t, i) => {
+      const id = checkTrace(t, `traces[${i}]`);
+      if (traceIds.has(id)) fail(`traces[${i}].id`, `the id "${id}" is used by two traces`);
+      traceIds.add(id);
+    });
+  }
+  if (p.sectionLine !== undefined) checkSectionLine(p.sectionLine, 'sectionLine');
   return p as unknown as FoldlensProject;
 }
 
@@ -471,6 +509,40 @@ function checkDomain(value: unknown, path: string): string {
   return id;
 }
 
+function checkTrace(value: unknown, path: string): string {
+  const t = object(value, path, 'a trace {id, name, line}');
+  known(t, path, ['id', 'name', 'line']);
+  const id = text(t.id, `${path}.id`, 'an id', true);
+  text(t.name, `${path}.name`, 'a name');
+  checkLine(t.line, `${path}.line`);
+  return id;
+}
+
+function checkSectionLine(value: unknown, path: string): void {
+  const s = object(value, path, 'a section line {line, swath}');
+  known(s, path, ['line', 'swath']);
+  checkLine(s.line, `${path}.line`);
+  if (typeof s.swath !== 'number' || !Number.isFinite(s.swath) || !(s.swath > 0) || s.swath > MAX_SECTION_SWATH) {
+    expected(`${path}.swath`, `a swath half-width in metres, more than 0 and at most ${MAX_SECTION_SWATH}`, s.swath);
+  }
+}
+
+/** A line drawn on the map: at least two [longitude, latitude] positions, not all at one place. */
+function checkLine(value: unknown, path: string): void {
+  const line = array(value, path, 'a line of [longitude, latitude] positions');
+  if (line.length < 2) fail(path, `expected at least 2 positions, found ${line.length}`);
+  line.forEach((pos, i) => {
+    const p = `${path}[${i}]`;
+    if (!Array.isArray(pos) || pos.length !== 2) expected(p, '[longitude, latitude]', pos);
+    if (typeof pos[0] !== 'number' || !(Math.abs(pos[0]) <= 180)) expected(`${p}[0]`, 'a longitude from -180 to 180', pos[0]);
+    if (typeof pos[1] !== 'number' || !(Math.abs(pos[1]) <= 90)) expected(`${p}[1]`, 'a latitude from -90 to 90', pos[1]);
+  });
+  const [lon0, lat0] = line[0] as [number, number];
+  if (line.every((pos) => (pos as [number, number])[0] === lon0 && (pos as [number, number])[1] === lat0)) {
+    fail(path, `expected at least 2 different positions, found ${line.length} at one place`);
+  }
+}
+
 function checkRing(value: unknown, path: string): void {
   const ring = array(value, path, 'a ring of [longitude, latitude] positions');
   if (ring.length < 3) fail(path, `expected at least 3 positions, found ${ring.length}`);
@@ -503,6 +575,7 @@ function describe(v: unknown): string {
   if (Array.isArray(v)) return 'a list';
   if (v === null) return 'null';
   if (typeof v === 'object') return 'an object';
+  if (typeof v === 'number' && !Number.isFinite(v)) return String(v); // JSON.stringify would say null
   const s = JSON.stringify(v);
   return s.length > 60 ? `${s.slice(0, 57)}...` : s;
 }

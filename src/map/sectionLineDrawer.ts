@@ -96,7 +96,10 @@ export class SectionLineDrawer extends EventTarget {
     el.addEventListener('pointerleave', this.onLeave);
     window.addEventListener('keydown', this.onKey);
     map.on('style.load', this.install);
-    if (map.isStyleLoaded()) this.install();
+    // isStyleLoaded() is false while any source is loading (a drawer made then, e.g. for a trace
+    // restored on load, would never show); getStyle() is defined as soon as the style itself is,
+    // which is all that adding sources and layers needs.
+    if (map.isStyleLoaded() || map.getStyle() !== undefined) this.install();
   }
 
   /** Id of the GeoJSON source with the line, its vertices and its swath. */

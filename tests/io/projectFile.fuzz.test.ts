@@ -38,6 +38,8 @@ function validProject(): FoldlensProject {
     ...project,
     selections: [{ id: 's-1', name: 'ridge', dataset: 'ds-1', indices: [0, 1], stationIds: ['A1', 'A2'], shape: { tool: 'lasso', ring }, savedAt: '2025-06-01T00:00:00.000Z' }],
     domains: [{ id: 'd-1', name: 'west', ring, analysis: { axis: { trend: 75, plunge: 12 }, n: 2 } }],
+    traces: [{ id: 't-1', name: 'Drawn trace 1', line: [[15, 24.6], [15.005, 24.603], [15.01, 24.61]] }],
+    sectionLine: { line: [[14.99, 24.59], [15.02, 24.62]], swath: 500 },
   };
 }
 
