@@ -4,8 +4,8 @@ export type WorkerReply<R> = { ok: true; result: R } | { ok: false; id: number; 
 /** How a {@link LatestJobClient} starts its worker and runs jobs without one. */
 export interface LatestJobClientOptions<J extends { id: number }, R extends { id: number }> {
   /**
-   * Starts the worker. Each client passes `new Worker(new URL('./x.worker.ts', import.meta.url), { type: 'module' })`
-   * written out in its own file, so the bundler finds and builds the worker script.
+   * Starts the worker. Each client writes its `new Worker(...)` call, with the script's URL made
+   * from `import.meta.url`, out in its own file, so the bundler finds and builds the worker script.
    */
   readonly startWorker: () => Worker;
   /** Runs a job on the main thread, where workers are unavailable or failed to start. */
@@ -23,7 +23,7 @@ export interface LatestJobClientOptions<J extends { id: number }, R extends { id
  * start (strict CSP, file://), and then rejects the jobs the failed worker held.
  * @example
  * const client = new LatestJobClient<Job, Result>({
- *   startWorker: () => new Worker(new URL('./my.worker.ts', import.meta.url), { type: 'module' }),
+ *   startWorker: () => new Worker(myWorkerUrl, { type: 'module' }),
  *   runInThread: runMyJob, laneOf: () => 'all', label: 'my job',
  * });
  * const result = await client.run({ ... }); // null when a newer job took over
