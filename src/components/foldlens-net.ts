@@ -154,7 +154,8 @@ export class FoldlensNet extends LitElement {
     select, button { font: inherit; color: inherit; background: var(--fl-bg, #fbfaf7); border: 1px solid var(--fl-border, #c9cdc8); border-radius: 4px; padding: 1px 6px; }
     button { cursor: pointer; }
     select:focus-visible, button:focus-visible, input:focus-visible { outline: 2px solid var(--fl-accent, #0b6e8a); outline-offset: 1px; }
-    svg { display: block; width: 100%; height: auto; user-select: none; -webkit-user-select: none; }
+    /* The drawing is a sheet of its own colour (white by default) in any page theme: its text and key are drawn for it, as the exports are. */
+    svg { display: block; width: 100%; height: auto; user-select: none; -webkit-user-select: none; background: var(--fl-net-halo, #ffffff); border-radius: 4px; }
     svg.near { cursor: pointer; }
     .readout { min-height: 1.4em; margin: 2px 0 0; color: var(--fl-muted, #5b6469); font-variant-numeric: tabular-nums; font-size: 12px; }
     h2 { font-size: 12px; text-transform: uppercase; letter-spacing: 0.06em; color: var(--fl-muted, #5b6469); margin: 0 0 2px; }

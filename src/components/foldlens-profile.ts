@@ -135,7 +135,8 @@ export class FoldlensProfile extends LitElement {
     select:disabled { opacity: 0.55; }
     select:focus-visible, button:focus-visible, input:focus-visible, .drawing:focus-visible { outline: 2px solid var(--fl-accent, #0b6e8a); outline-offset: 1px; }
     .drawing { border-radius: 4px; }
-    svg { display: block; width: 100%; height: auto; user-select: none; -webkit-user-select: none; touch-action: none; cursor: grab; }
+    /* The drawing is a sheet of its own colour (white by default) in any page theme: its text and key are drawn for it, as the exports are. */
+    svg { display: block; width: 100%; height: auto; user-select: none; -webkit-user-select: none; touch-action: none; cursor: grab; background: var(--fl-profile-halo, #ffffff); border-radius: 4px; }
     svg:active { cursor: grabbing; }
     svg.near { cursor: pointer; }
     .zoomed path { vector-effect: non-scaling-stroke; }
