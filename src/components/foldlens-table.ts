@@ -427,7 +427,7 @@ export class FoldlensTable extends LitElement {
   }
 
   override render() {
-    if (!this.data) return html`<div class="empty" part="grid">No stations yet: import a file.</div>`;
+    if (!this.data) return html`<div class="empty" part="grid">No file imported yet. The sample map's stations are not listed here; import a file to list, check and fix your own rows.</div>`;
     const template = this.columns.map((c) => `${c.width}px`).join(' ');
     const width = this.columns.reduce((w, c) => w + c.width, 0);
     const n = this.view.length;

@@ -197,7 +197,7 @@ describe('consistency panel on the sample map', () => {
       const map = (window as unknown as DemoWindow).foldlensDemo.map;
       return map.queryRenderedFeatures({ layers: ['foldlens-consistency-flags'] }).length >= n;
     }, Math.min(flagged, 5), { timeout: 30_000 });
-    expect(text).toMatch(/lie more than 2° from the axis/);
+    expect(text).toMatch(/lies? more than 2° from the axis/);
     await threshold.fill('15');
   });
 

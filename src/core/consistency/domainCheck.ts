@@ -138,6 +138,13 @@ export interface DomainCheck {
 }
 
 /**
+ * Angles below this (degrees) are within what one hand-held compass-clinometer reading resolves
+ * (common practice: readings are good to a few degrees), so a statistically significant
+ * difference smaller than this is reported as a note.
+ */
+const COMPASS_PRECISION_DEG = 3;
+
+/**
  * Runs every check on one domain. Throws a RangeError naming the bad reading or option.
  * @example
  * const check = checkDomain({ id: 'west', name: 'West', planes, lines, surfaces, convergence: 0.006 });
@@ -156,10 +163,18 @@ export function checkDomain(input: DomainCheckInput, options: DomainCheckOptions
   const lines = fold.axis && input.lines.length > 0 ? compareAxisWithLines(fold.axis, input.lines, { cone95: fold.cone95, ...(options.lineThreshold !== undefined && { threshold: options.lineThreshold }) }) : null;
   if (lines && lines.flagged > 0) {
     const ids = lines.lines.filter((l) => l.flagged).map((l) => l.id ?? `line ${l.index + 1}`);
-    flags.push({ code: 'lines-off-axis', severity: 'warning', message: `${lines.flagged} measured line${lines.flagged === 1 ? '' : 's'} lie more than ${lines.threshold}° from the axis: ${ids.join(', ')}.`, ids });
+    flags.push({ code: 'lines-off-axis', severity: 'warning', message: `${lines.flagged} measured line${lines.flagged === 1 ? ' lies' : 's lie'} more than ${lines.threshold}° from the axis: ${ids.join(', ')}.`, ids });
   }
   if (lines && lines.meanInsideAxisCone === false && lines.axisInsideLineCone === false) {
-    flags.push({ code: 'line-mean-outside-cone', severity: 'warning', message: `The mean of the measured lines is ${lines.all.angle!.toFixed(1)}° from the axis, outside both the axis's 95% cone and the lines' alpha95.` });
+    // Many readings make both cones narrow, so a difference below what a compass reading can
+    // resolve may still be "significant": then it is a note, not a warning.
+    const angle = lines.all.angle!;
+    const small = angle < COMPASS_PRECISION_DEG;
+    flags.push({
+      code: 'line-mean-outside-cone',
+      severity: small ? 'note' : 'warning',
+      message: `The mean of the measured lines is ${angle.toFixed(1)}° from the axis, outside both the axis's 95% cone and the lines' alpha95${small ? `; that is less than the ${COMPASS_PRECISION_DEG}° a single compass reading can resolve, so it is unlikely to matter` : ''}.`,
+    });
   }
 
   const girdle = girdleResiduals(input.planes, {
@@ -169,7 +184,7 @@ export function checkDomain(input: DomainCheckInput, options: DomainCheckOptions
   });
   if (girdle.outliers > 0) {
     const ids = girdle.residuals.filter((r) => r.flagged).map((r) => r.id ?? `plane ${r.index + 1}`);
-    flags.push({ code: 'planes-off-girdle', severity: 'warning', message: `${girdle.outliers} plane${girdle.outliers === 1 ? '' : 's'} lie more than ${girdle.threshold.toFixed(1)}° from the girdle: ${ids.join(', ')}.`, ids });
+    flags.push({ code: 'planes-off-girdle', severity: 'warning', message: `${girdle.outliers} plane${girdle.outliers === 1 ? ' lies' : 's lie'} more than ${girdle.threshold.toFixed(1)}° from the girdle: ${ids.join(', ')}.`, ids });
   }
   const cyl = girdle.cylindricityWithoutOutliers ?? girdle.cylindricity;
   if (cyl && (cyl.shape === 'not-cylindrical' || cyl.shape === 'nearly-cylindrical')) {

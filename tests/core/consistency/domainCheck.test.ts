@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { checkDomain, type DomainPlane } from '../../../src/core/consistency/domainCheck';
 import { analyzeFold } from '../../../src/core/foldAnalysis';
 import { angleBetweenLines } from '../../../src/core/geometry';
-import { comb3, contactTraces, foldStations, levelGroundClosures, ned, planeOfNormal, profileBasis, surfaceBedding, unit3, type SynthStation } from './synthetic';
+import { comb3, contactTraces, foldStations, jitter, levelGroundClosures, lineOf, ned, planeOfNormal, profileBasis, surfaceBedding, unit3, type SynthStation } from './synthetic';
 import { mulberry32 } from '../../helpers/prng';
 
 const AXIS = { trend: 60, plunge: 20 };
@@ -128,5 +128,41 @@ describe('checkDomain', () => {
     expect(check.flags[0].code).toBe('axis-undefined');
     expect(check.lines).toBeNull();
     expect(() => checkDomain({ id: 'x', name: 'X', planes: [], lines: [], convergence: Number.NaN })).toThrow(/convergence NaN/);
+  });
+});
+
+describe('checkDomain: the lines\' mean against the axis', () => {
+  const AXIS_HERE = { trend: 60, plunge: 20 };
+  /** 200 planes whose poles lie on the great circle normal to the axis, each scattered by 0.5° (a tight girdle). */
+  function girdlePlanes(seed: number): DomainPlane[] {
+    const rnd = mulberry32(seed);
+    const { up, right } = profileBasis(ned(AXIS_HERE.trend, AXIS_HERE.plunge));
+    return Array.from({ length: 200 }, (_, k) => {
+      const t = (Math.PI * k) / 200;
+      const pole = jitter(unit3(comb3(up, Math.cos(t), right, Math.sin(t))), 0.5, rnd);
+      return { ...planeOfNormal(pole), id: `P${k}` };
+    });
+  }
+  /** 60 lines about a direction `offset`° from the axis, each scattered by 0.5°. */
+  function linesOff(offset: number, seed: number) {
+    const rnd = mulberry32(seed);
+    const { up } = profileBasis(ned(AXIS_HERE.trend, AXIS_HERE.plunge));
+    const r = (offset * Math.PI) / 180;
+    const centre = unit3(comb3(ned(AXIS_HERE.trend, AXIS_HERE.plunge), Math.cos(r), up, Math.sin(r)));
+    return Array.from({ length: 60 }, (_, k) => ({ ...lineOf(jitter(centre, 0.5, rnd)), id: `L${k}` }));
+  }
+  const flagOf = (offset: number) =>
+    checkDomain({ id: 'a', name: 'A', planes: girdlePlanes(5), lines: linesOff(offset, 6) }, { bootstrap: 200, searchAxis: false }).flags.find((f) => f.code === 'line-mean-outside-cone');
+
+  it('checkDomain(planes, lines 1.5° off the axis) notes a difference that is significant but below what a compass reading resolves', () => {
+    const flag = flagOf(1.5);
+    expect(flag?.severity).toBe('note');
+    expect(flag?.message).toMatch(/less than the 3° a single compass reading can resolve/);
+  });
+
+  it('checkDomain(planes, lines 6° off the axis) warns', () => {
+    const flag = flagOf(6);
+    expect(flag?.severity).toBe('warning');
+    expect(flag?.message).not.toMatch(/compass/);
   });
 });
