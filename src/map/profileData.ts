@@ -333,7 +333,8 @@ export function buildProfileData(input: ProfileDataInput): ProfileData {
 export function viewText(axis: Line, section: Pick<ProfileSectionInfo, 'azimuths'> | null): string {
   if (!section) return `Looking down-plunge toward ${az3(axis.trend)}°, plunge ${deg(axis.plunge)}°`;
   const a = section.azimuths;
-  const along = a.length === 1 ? `toward ${az3(a[0])}°` : `in ${a.length} segments, ${az3(a[0])}° to ${az3(a[a.length - 1])}°`;
+  // One straight segment, drawn start on the left: the viewer's right hand points along it, so they face 90° anticlockwise of it.
+  const along = a.length === 1 ? `along ${az3(a[0])}°, looking toward ${az3((a[0] + 270) % 360)}°` : `in ${a.length} segments, ${az3(a[0])}° to ${az3(a[a.length - 1])}°`;
   return `Vertical section ${along}; axis ${az3(axis.trend)}/${deg(axis.plunge)} projected along the plunge`;
 }
 

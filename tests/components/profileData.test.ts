@@ -233,6 +233,9 @@ describe('buildProfileData: what is left out is named', () => {
 
   it('viewText(axis, section) says which way the view looks', () => {
     expect(viewText({ trend: 74.994, plunge: 12 }, null)).toBe('Looking down-plunge toward 075°, plunge 12°');
-    expect(viewText({ trend: 75, plunge: 12 }, { azimuths: [150] })).toBe('Vertical section toward 150°; axis 075/12 projected along the plunge');
+    // Derived: a line drawn start-left to end-right runs along the viewer's right hand, so the
+    // viewer faces 90° anticlockwise of it (a section toward 150° is seen looking toward 060°).
+    expect(viewText({ trend: 75, plunge: 12 }, { azimuths: [150] })).toBe('Vertical section along 150°, looking toward 060°; axis 075/12 projected along the plunge');
+    expect(viewText({ trend: 75, plunge: 12 }, { azimuths: [30] })).toMatch(/^Vertical section along 030°, looking toward 300°;/);
   });
 });
