@@ -19,14 +19,26 @@ export async function launchBrowser(): Promise<Browser> {
 }
 
 /** Opens the demo, fails the test on any console error or page error, and waits for the map. */
-export async function openDemo(browser: Browser, query = '', viewport = { width: 1280, height: 800 }): Promise<{ page: Page; errors: string[] }> {
+export async function openDemo(
+  browser: Browser,
+  query = '',
+  viewport = { width: 1280, height: 800 },
+  options: {
+    /**
+     * Leave the dev server's reload channel unanswered, for tests that go step by step on one
+     * page: a full reload (the server sees any edit to the sources) would lose what the steps built.
+     */
+    readonly holdReloads?: boolean;
+  } = {},
+): Promise<{ page: Page; errors: string[] }> {
   const page = await browser.newPage({ viewport });
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
   page.on('console', (m) => {
     if (m.type() === 'error') errors.push(`console: ${m.text()}`);
   });
+  if (options.holdReloads) await page.routeWebSocket(/./, () => {});
   await page.goto(inject('demoUrl') + query);
-  await page.waitForSelector('body[data-map-ready="true"]', { timeout: 60_000 });
+  await page.waitForSelector('body[data-map-ready="true"]', { timeout: 120_000 });
   return { page, errors };
 }

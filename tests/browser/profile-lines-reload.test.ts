@@ -1,10 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { inject } from 'vitest';
-import { launchBrowser } from './browser';
-import truth from '../../sample-maps/korvane/truth.json';
-import { builtInCrs, toLonLat } from '../../src/io/crs';
+import { launchBrowser, openDemo } from './browser';
 import { emptyProject, projectToJson } from '../../src/io/projectFile';
+import { fromWestOrigin, onScreen } from './westSection';
 
 /**
  * The lines drawn on the map are kept with the project: a trace and a section line drawn on the
@@ -14,26 +12,6 @@ import { emptyProject, projectToJson } from '../../src/io/projectFile';
  */
 
 type Demo = { foldlensDemo: { map: import('maplibre-gl').Map } };
-const west = truth.domains.find((d) => d.id === 'west')!;
-const utm = builtInCrs(truth.crs.epsg)!;
-
-/** A point `s` metres from the west domain's profile origin along grid azimuth `az`, as lon/lat. */
-function fromOrigin(s: number, az: number): [number, number] {
-  const [e0, n0] = west.profile.originUtm;
-  const ll = toLonLat(e0 + s * Math.sin((az * Math.PI) / 180), n0 + s * Math.cos((az * Math.PI) / 180), utm);
-  return [ll.lon, ll.lat];
-}
-
-async function onScreen(page: Page, lonLat: [number, number][]): Promise<{ x: number; y: number }[]> {
-  return page.evaluate((pts) => {
-    const map = (window as unknown as Demo).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    return pts.map((p) => {
-      const q = map.project(p);
-      return { x: rect.left + q.x, y: rect.top + q.y };
-    });
-  }, lonLat);
-}
 
 /** Clicks along the points and double-clicks the last (how a line is drawn with the mouse). */
 async function clickLine(page: Page, lonLat: [number, number][]): Promise<void> {
@@ -101,15 +79,8 @@ describe('traces and the section line are kept with the project', () => {
 
   beforeAll(async () => {
     browser = await launchBrowser();
-    page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-    errors = [];
-    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
-    });
-    await page.routeWebSocket(/./, () => {}); // the reload here is the test's own, not the dev server's
-    await page.goto(inject('demoUrl'));
-    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 120_000 });
+    // One page, step by step: the dev server's reloads are held (see openDemo).
+    ({ page, errors } = await openDemo(browser, '', { width: 1280, height: 900 }, { holdReloads: true }));
   });
   afterAll(async () => {
     await browser?.close();
@@ -120,10 +91,10 @@ describe('traces and the section line are kept with the project', () => {
     await page.locator('#section-swath').fill('600');
     await page.locator('#section-swath').press('Tab');
     await page.getByRole('button', { name: 'Trace a line on the map' }).click();
-    await clickLine(page, [fromOrigin(-400, 45), fromOrigin(0, 30), fromOrigin(400, 45)]);
+    await clickLine(page, [fromWestOrigin(-400, 45), fromWestOrigin(0, 30), fromWestOrigin(400, 45)]);
     await expect.poll(() => page.locator('#trace-count').textContent()).toBe('1');
     await page.getByRole('button', { name: 'Draw section line' }).click();
-    await clickLine(page, [fromOrigin(-1700, 135), fromOrigin(1700, 135)]);
+    await clickLine(page, [fromWestOrigin(-1700, 135), fromWestOrigin(1700, 135)]);
     await page.waitForFunction(() => document.querySelector('foldlens-profile')!.data?.mode === 'section', null, { timeout: 150_000 });
     drawnBefore.trace = await lineOnMap(page, 'foldlens-trace-1');
     drawnBefore.section = await lineOnMap(page, 'foldlens-section');
@@ -167,8 +138,8 @@ describe('traces and the section line are kept with the project', () => {
   it('a project file with a trace and a section line opens with both on the map, the trace\'s name shown as text', async () => {
     const name = 'Marker bed <img src=x id=fl-injected>';
     // Through the section's middle vertex, every vertex within the swath.
-    const trace = [fromOrigin(-200, 60), fromOrigin(0, 0), fromOrigin(200, 60)];
-    const section = [fromOrigin(-1500, 150), fromOrigin(0, 135), fromOrigin(1500, 120)];
+    const trace = [fromWestOrigin(-200, 60), fromWestOrigin(0, 0), fromWestOrigin(200, 60)];
+    const section = [fromWestOrigin(-1500, 150), fromWestOrigin(0, 135), fromWestOrigin(1500, 120)];
     const text = projectToJson({ ...emptyProject('Drawn lines', '2025-06-01T00:00:00.000Z'), traces: [{ id: 'trace-a', name, line: trace }], sectionLine: { line: section, swath: 400 } });
     await page.locator('#data-panel > summary').click();
     await page.locator('foldlens-import [part="panel"]').waitFor();

@@ -2,10 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Browser, Page } from 'playwright-core';
-import { inject } from 'vitest';
-import { launchBrowser } from './browser';
-import truth from '../../sample-maps/korvane/truth.json';
-import { builtInCrs, toLonLat } from '../../src/io/crs';
+import { launchBrowser, openDemo } from './browser';
+import { fromWestOrigin, onScreen } from './westSection';
 
 /**
  * The sample map's contacts, faults and terrain model belong to the SYNTHETIC Korvane district:
@@ -15,37 +13,15 @@ import { builtInCrs, toLonLat } from '../../src/io/crs';
  * first shows that the sample's contacts and ground line are there to be left out.
  */
 
-type Demo = { foldlensDemo: { map: import('maplibre-gl').Map } };
-const west = truth.domains.find((d) => d.id === 'west')!;
-const utm = builtInCrs(truth.crs.epsg)!;
-
-/** A point `s` metres from the west domain's profile origin along grid azimuth `az`, then `side` metres to its right, as lon/lat. */
-function fromOrigin(s: number, az: number, side = 0): [number, number] {
-  const [e0, n0] = west.profile.originUtm;
-  const a = (az * Math.PI) / 180;
-  const ll = toLonLat(e0 + s * Math.sin(a) + side * Math.cos(a), n0 + s * Math.cos(a) - side * Math.sin(a), utm);
-  return [ll.lon, ll.lat];
-}
 
 /** Eleven bedding readings every 300 m along the section, 100 m off it, each with its own elevation. */
 function traverseCsv(): string {
   const rows = ['Station,Type,Longitude,Latitude,Elevation,Dip Dir,Dip'];
   for (let k = 0; k <= 10; k++) {
-    const [lon, lat] = fromOrigin(-1500 + 300 * k, 135, 100);
+    const [lon, lat] = fromWestOrigin(-1500 + 300 * k, 135, 100);
     rows.push(`TS-${String(k + 1).padStart(2, '0')},Bedding,${lon.toFixed(7)},${lat.toFixed(7)},${420 + 7 * k},${k % 2 ? 160 : 340},${20 + 3 * k}`);
   }
   return `${rows.join('\n')}\n`;
-}
-
-async function onScreen(page: Page, lonLat: [number, number][]): Promise<{ x: number; y: number }[]> {
-  return page.evaluate((pts) => {
-    const map = (window as unknown as Demo).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    return pts.map((p) => {
-      const q = map.project(p);
-      return { x: rect.left + q.x, y: rect.top + q.y };
-    });
-  }, lonLat);
 }
 
 /** What the open section panel was given: its line layers, whether it has a ground line, and its counts. */
@@ -77,7 +53,7 @@ async function waitForSection(page: Page, mark: string): Promise<void> {
 
 async function drawSection(page: Page): Promise<void> {
   await page.getByRole('button', { name: /^Draw (a new )?section line$/ }).click();
-  const [a, b] = await onScreen(page, [fromOrigin(-1700, 135), fromOrigin(1700, 135)]);
+  const [a, b] = await onScreen(page, [fromWestOrigin(-1700, 135), fromWestOrigin(1700, 135)]);
   await page.mouse.click(a.x, a.y);
   await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 5 });
   await page.mouse.dblclick(b.x, b.y);
@@ -93,17 +69,8 @@ describe('the sample map\'s lines and terrain are not projected under the user\'
 
   beforeAll(async () => {
     browser = await launchBrowser();
-    page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-    errors = [];
-    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
-    });
-    // The dev server's reload channel answered by nobody: a full reload (the server sees any edit
-    // to the sources) would lose the axis and the line between the steps.
-    await page.routeWebSocket(/./, () => {});
-    await page.goto(inject('demoUrl'));
-    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 120_000 });
+    // One page, step by step: the dev server's reloads are held (see openDemo).
+    ({ page, errors } = await openDemo(browser, '', { width: 1280, height: 900 }, { holdReloads: true }));
     const picker = page.locator('#axis-picker');
     await picker.getByLabel('Trend (°)').fill('075');
     await picker.getByLabel('Plunge (°)').fill('12');
@@ -160,7 +127,7 @@ describe('the sample map\'s lines and terrain are not projected under the user\'
 
     // A trace drawn on the map is still offered, but without a terrain model it has no heights (as the note says).
     await page.getByRole('button', { name: 'Trace a line on the map' }).click();
-    const [t0, t1] = await onScreen(page, [fromOrigin(-300, 45), fromOrigin(300, 45)]);
+    const [t0, t1] = await onScreen(page, [fromWestOrigin(-300, 45), fromWestOrigin(300, 45)]);
     await page.mouse.click(t0.x, t0.y);
     await page.mouse.move((t0.x + t1.x) / 2, (t0.y + t1.y) / 2, { steps: 5 });
     await page.mouse.dblclick(t1.x, t1.y);

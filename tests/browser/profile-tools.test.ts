@@ -2,12 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Browser, Page } from 'playwright-core';
-import { inject } from 'vitest';
-import { launchBrowser } from './browser';
+import { launchBrowser, openDemo } from './browser';
 import truth from '../../sample-maps/korvane/truth.json';
-import { builtInCrs, toLonLat } from '../../src/io/crs';
 import { angleBetweenLines } from '../../src/core/geometry';
 import { expectClose } from '../helpers/tolerance';
+import { fromWestOrigin, onScreen } from './westSection';
 
 /**
  * The demo's "Profiles and sections" block used as a geologist would, on the SYNTHETIC Korvane
@@ -25,26 +24,6 @@ import { expectClose } from '../helpers/tolerance';
 
 type Demo = { foldlensDemo: { map: import('maplibre-gl').Map } };
 const west = truth.domains.find((d) => d.id === 'west')!;
-const utm = builtInCrs(truth.crs.epsg)!;
-
-/** A point `s` metres from the west domain's profile origin along azimuth `az` (grid), as lon/lat. */
-function fromOrigin(s: number, az: number): [number, number] {
-  const [e0, n0] = west.profile.originUtm;
-  const ll = toLonLat(e0 + s * Math.sin((az * Math.PI) / 180), n0 + s * Math.cos((az * Math.PI) / 180), utm);
-  return [ll.lon, ll.lat];
-}
-
-/** Page coordinates of lon/lat positions on the map as it is shown now. */
-async function onScreen(page: Page, lonLat: [number, number][]): Promise<{ x: number; y: number }[]> {
-  return page.evaluate((pts) => {
-    const map = (window as unknown as Demo).foldlensDemo.map;
-    const rect = map.getCanvasContainer().getBoundingClientRect();
-    return pts.map((p) => {
-      const q = map.project(p);
-      return { x: rect.left + q.x, y: rect.top + q.y };
-    });
-  }, lonLat);
-}
 
 /** Text of one element in the profile panel's shadow DOM ('' when absent). */
 async function panelText(page: Page, selector: string): Promise<string> {
@@ -78,17 +57,8 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
   let errors: string[];
   beforeAll(async () => {
     browser = await launchBrowser();
-    page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
-    errors = [];
-    page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
-    page.on('console', (m) => {
-      if (m.type() === 'error') errors.push(`console: ${m.text()}`);
-    });
-    // The dev server's reload channel answered by nobody: the tests go step by step on one page, and a
-    // full reload (the server sees any edit to the sources) would lose the axis, the line and the selection.
-    await page.routeWebSocket(/./, () => {});
-    await page.goto(inject('demoUrl'));
-    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 120_000 });
+    // One page, step by step: the dev server's reloads are held (see openDemo).
+    ({ page, errors } = await openDemo(browser, '', { width: 1280, height: 900 }, { holdReloads: true }));
   });
   afterAll(async () => {
     await browser?.close();
@@ -132,7 +102,7 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
     await page.locator('#section-swath').press('Tab');
     await page.getByRole('button', { name: 'Draw section line' }).click();
     expect(await page.getByRole('button', { name: /Drawing section line/ }).getAttribute('aria-pressed')).toBe('true');
-    const [a, b] = await onScreen(page, [fromOrigin(-1700, 135), fromOrigin(1700, 135)]);
+    const [a, b] = await onScreen(page, [fromWestOrigin(-1700, 135), fromWestOrigin(1700, 135)]);
     const zoom = () => page.evaluate(() => (window as unknown as Demo).foldlensDemo.map.getZoom());
     const zoomBefore = await zoom();
     await page.mouse.click(a.x, a.y);
@@ -173,7 +143,9 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
     const panel = page.locator('foldlens-profile');
     await panel.getByLabel('Vertical exaggeration').selectOption('2');
     await expect.poll(() => panelText(page, '[data-name="scale-text"]')).toMatch(/V\.E\. ×2$/);
-    expect(await panelText(page, '[data-name="annotation"]')).toContain('V.E. ×2 (vertical exaggeration)');
+    // The heading may wrap over several lines (annotation, annotation-1, ...): read them together.
+    const heading = await page.evaluate(() => [...document.querySelector('foldlens-profile')!.shadowRoot!.querySelectorAll('[data-name^="annotation"]')].map((e) => e.textContent).join(' '));
+    expect(heading).toContain('V.E. ×2 (vertical exaggeration)');
     await panel.getByLabel('Vertical exaggeration').selectOption('1');
   });
 
@@ -215,7 +187,7 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
     await page.getByRole('button', { name: 'Trace a line on the map' }).click();
     expect(await page.locator('#trace-draw').getAttribute('aria-pressed')).toBe('true');
     // A trace across the section near its middle, 800 m long: all of it inside the 600 m swath.
-    const [a, b] = await onScreen(page, [fromOrigin(-400, 45), fromOrigin(400, 45)]);
+    const [a, b] = await onScreen(page, [fromWestOrigin(-400, 45), fromWestOrigin(400, 45)]);
     await page.mouse.click(a.x, a.y);
     await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 5 });
     await page.mouse.dblclick(b.x, b.y);
@@ -234,7 +206,7 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
 
   it('Escape while drawing a new line cancels it and keeps the last section line', async () => {
     await page.getByRole('button', { name: 'Draw a new section line' }).click();
-    const [p] = await onScreen(page, [fromOrigin(0, 0)]);
+    const [p] = await onScreen(page, [fromWestOrigin(0, 0)]);
     await page.mouse.click(p.x, p.y);
     expect(await page.locator('#profile-status').textContent()).toContain('1 point.');
     await page.keyboard.press('Escape');
@@ -248,7 +220,7 @@ describe('profile tools in the demo: section line, swath, line layers and axis p
   for (const pointerType of ['touch', 'pen'] as const) {
     it(`a section line tapped with ${pointerType} pointer events (three points, the last tapped twice) opens a section of two segments`, async () => {
       await page.getByRole('button', { name: 'Draw a new section line' }).click();
-      const pts = await onScreen(page, [fromOrigin(-1500, 150), fromOrigin(0, 0), fromOrigin(1500, 170)]);
+      const pts = await onScreen(page, [fromWestOrigin(-1500, 150), fromWestOrigin(0, 0), fromWestOrigin(1500, 170)]);
       await page.evaluate(
         ([type, taps]) => {
           const map = (window as unknown as Demo).foldlensDemo.map;

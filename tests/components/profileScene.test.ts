@@ -176,7 +176,9 @@ describe('the drawing (profileScene.ts)', () => {
     const { layers } = scene(data, 2, 'layer');
     const items = layers.find((l) => l.id === 'annotations')!.items;
     expect((byName(items, 'scale-text') as { text: string }).text).toMatch(/ · V\.E\. ×2$/);
-    expect((byName(items, 'annotation') as { text: string }).text).toContain('V.E. ×2 (vertical exaggeration)');
+    // The heading may wrap over several lines: read them together.
+    const heading = items.filter((i) => i.type === 'text' && i.role === 'annotation').map((i) => (i as { text: string }).text).join(' ');
+    expect(heading).toContain('V.E. ×2 (vertical exaggeration)');
     expect(byName(items, 'edge-up')).toMatchObject({ text: '↑ up (vertical)' });
     expect((byName(items, 'axis-text') as { text: string }).text).toMatch(/^axis apparent plunge \d+\.\d° toward the (end|start) \(drawn \d+\.\d° at V\.E\. ×2\)$/);
     expect(layers.find((l) => l.id === 'topography')!.items).toHaveLength(1);
