@@ -150,7 +150,7 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
       const ny = w >= h ? Math.max(1, Math.round((request.grid * h) / w)) : request.grid;
       const result = await client.field({ xy, poles, nx, ny, k: request.k, bounds, angle: request.angle, minShare: request.minShare, ...(request.reference && { reference: request.reference }) });
       if (!result) return; // a newer request took over
-      field = { stations: deps.stations(), result, frame, planes: planeCount, reference: request.reference ? `${lineText(request.reference)} (given)` : `${lineText(result.field.reference)} (pi axis of all planes)` };
+      field = { stations: deps.stations(), result, frame, planes: planeCount, reference: request.reference ? `${lineText(request.reference)} (given)` : `${lineText(result.field.reference)} (π axis of all planes)` };
       showField(field);
     } catch (error) {
       fail(error);
@@ -173,7 +173,7 @@ export function setUpConsistency(deps: ConsistencyDeps): { workerScriptUrl: () =
       if (Number.isFinite(axes.angleToReference[i])) most = Math.max(most, axes.angleToReference[i]);
     }
     const window = axes.window.mode === 'nearest' ? `${axes.window.k} nearest` : `within ${axes.window.radius.toFixed(0)} m`;
-    panel.fieldSummary = `Pi axis of the ${window} of ${f.planes} bedding planes at ${axes.grid.nx} × ${axes.grid.ny} cells (${defined} with an axis), up to ${most.toFixed(1)}° from the reference ${f.reference}. ${partition.regions.length} suggested domain${partition.regions.length === 1 ? '' : 's'}.`;
+    panel.fieldSummary = `π axis of the ${window} of ${f.planes} bedding planes at ${axes.grid.nx} × ${axes.grid.ny} cells (${defined} with an axis), up to ${most.toFixed(1)}° from the reference ${f.reference}. ${partition.regions.length} suggested domain${partition.regions.length === 1 ? '' : 's'}.`;
     panel.regions = partition.regions.map((r) => ({ label: r.label, axis: r.axis, nodes: r.nodes, spread: r.spread }));
     panel.canAccept = partition.regions.length > 0;
     document.body.dataset.consistencyField = String(partition.regions.length);

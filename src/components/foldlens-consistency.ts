@@ -221,9 +221,9 @@ export class FoldlensConsistency extends LitElement {
           <div class="grid">
             <label for="k">Window</label><input id="k" name="k" type="number" min="8" max="500" step="1" value="25" required /><span class="unit">nearest planes</span>
             <label for="grid">Grid</label><input id="grid" name="grid" type="number" min="5" max="200" step="1" value="50" required /><span class="unit">cells along the longer side</span>
-            <label for="angle">Largest turn in a domain</label><input id="angle" name="angle" type="number" min="1" max="45" step="0.5" value="10" required /><span class="unit">degrees</span>
+            <label for="angle">A cell joins a domain within</label><input id="angle" name="angle" type="number" min="1" max="45" step="0.5" value="10" required /><span class="unit">degrees of the domain's axis as it grows</span>
             <label for="share">Smallest domain</label><input id="share" name="share" type="number" min="0" max="50" step="0.5" value="5" required /><span class="unit">% of the field</span>
-            <label for="reference">Reference axis</label><input id="reference" name="reference" type="text" placeholder="all planes" aria-invalid=${this.referenceProblem ? 'true' : 'false'} aria-describedby="reference-help" /><span class="unit" id="reference-help">trend/plunge; blank: pi axis of all planes</span>
+            <label for="reference">Reference axis</label><input id="reference" name="reference" type="text" placeholder="all planes" aria-invalid=${this.referenceProblem ? 'true' : 'false'} aria-describedby="reference-help" /><span class="unit" id="reference-help">trend/plunge; blank: π axis of all planes</span>
           </div>
           ${this.referenceProblem ? html`<p class="problem" role="alert">${this.referenceProblem}</p>` : nothing}
           <div class="actions"><button type="submit" class="primary" ?disabled=${busy}>${this.busy === 'field' ? 'Computing the field…' : 'Show axis field'}</button></div>
@@ -238,7 +238,7 @@ export class FoldlensConsistency extends LitElement {
         : nothing}
       ${this.regions.length > 0
         ? html`<ol part="regions" aria-label="Suggested domains">
-            ${this.regions.map((r) => html`<li>Suggested domain ${r.label + 1}: axis ${lineText(r.axis)}, ${r.nodes} cells, turning up to ${r.spread.toFixed(0)}° within</li>`)}
+            ${this.regions.map((r) => html`<li>Suggested domain ${r.label + 1}: mean cell axis ${lineText(r.axis)}, ${r.nodes} cells, cell axes up to ${r.spread.toFixed(0)}° from the domain's axis</li>`)}
           </ol>`
         : nothing}
       <div class="actions">

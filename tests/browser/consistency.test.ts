@@ -114,7 +114,7 @@ describe('consistency panel on the sample map', () => {
     const text = await panelText(page);
     expect(text).toMatch(/2 suggested domains\./);
     // The regions' mean axes, as the panel lists them, against the planted ones.
-    const listed = [...text.matchAll(/Suggested domain \d: axis (\d{3})\/(\d{2})/g)].map((m) => ({ trend: Number(m[1]), plunge: Number(m[2]) }));
+    const listed = [...text.matchAll(/Suggested domain \d: mean cell axis (\d{3})\/(\d{2})/g)].map((m) => ({ trend: Number(m[1]), plunge: Number(m[2]) }));
     expect(listed.length).toBe(2);
     for (const d of truth.domains) expect(Math.min(...listed.map((l) => angleBetweenLines(l, d.axis)))).toBeLessThan(AXIS_TOLERANCE);
     // The dashed boundary drawn on the map, against the fault.
