@@ -18,7 +18,7 @@ import {
 import { StationTooltip } from './stationTooltip';
 import { StationPicker } from './stationPicker';
 import { SymbolGlLayer, isSymbolGlLayerSupported, type SymbolImage } from './symbolGlLayer';
-import type { FeatureCollection, Point } from 'geojson';
+import type { Feature, FeatureCollection, Point } from 'geojson';
 
 /** Options of {@link attachFoldlens}; every field has a default in {@link defaultOverlayOptions}. */
 export interface FoldlensOverlayOptions {
@@ -148,14 +148,9 @@ export class FoldlensOverlay extends EventTarget {
     this.selectedFlags = new Uint8Array(stations.length);
     this.selectedCount = 0;
     this.hovered = -1;
-    this.features = this.thinnedFeatures();
-    this.picker = this.pickerOfShown();
     // The new data reloads every tile anyway: the rings wait again until something is marked.
     this.showRings(false);
-    this.ensureImages();
-    const source = this.map.getSource(this.sourceId) as GeoJSONSource | undefined;
-    source?.setData(this.features);
-    this.updateGlSymbols();
+    this.refreshFeatures();
     this.updateSelectedSource();
   }
 
@@ -177,10 +172,7 @@ export class FoldlensOverlay extends EventTarget {
   setVisibleKinds(kinds: Iterable<string> | null): void {
     this.visibleKinds = kinds === null ? null : new Set(kinds);
     // Thinning is among the stations shown, so a hidden kind leaves no gaps in the others.
-    this.features = this.thinnedFeatures();
-    this.picker = this.pickerOfShown();
-    (this.map.getSource(this.sourceId) as GeoJSONSource | undefined)?.setData(this.features);
-    this.updateGlSymbols();
+    this.refreshFeatures();
     this.applyFilters();
   }
 
@@ -235,16 +227,20 @@ export class FoldlensOverlay extends EventTarget {
     this.addedImages.clear();
   }
 
-  /** The stations' features, thinned among the kinds shown. */
-  private thinnedFeatures(): FeatureCollection<Point, OverlayFeatureProperties> {
+  /**
+   * Rebuilds what is drawn from the stations and the kinds shown: the features (thinned among
+   * the kinds shown) for the map's source, and from the features of the kinds shown, found once,
+   * the picker's tree and the custom layer's symbols.
+   */
+  private refreshFeatures(): void {
     const o = this.options;
-    return overlayFeatures(this.stations, { visibleKinds: this.visibleKinds, symbolScale: o.symbolScale, labelMinZoom: o.labelMinZoom, thin: true });
-  }
-
-  /** A picker over the stations of the kinds shown. */
-  private pickerOfShown(): StationPicker {
-    const shown = this.features.features.filter((f) => !this.visibleKinds || this.visibleKinds.has(KIND_CODES[f.properties.k]));
-    return new StationPicker(shown.map((f) => ({ index: f.id as number, lon: f.geometry.coordinates[0], lat: f.geometry.coordinates[1] })));
+    this.features = overlayFeatures(this.stations, { visibleKinds: this.visibleKinds, symbolScale: o.symbolScale, labelMinZoom: o.labelMinZoom, thin: true });
+    const kinds = this.visibleKinds;
+    const shown = kinds ? this.features.features.filter((f) => kinds.has(KIND_CODES[f.properties.k])) : this.features.features;
+    this.picker = new StationPicker(shown.map((f) => ({ index: f.id as number, lon: f.geometry.coordinates[0], lat: f.geometry.coordinates[1] })));
+    this.ensureImages();
+    (this.map.getSource(this.sourceId) as GeoJSONSource | undefined)?.setData(this.features);
+    this.updateGlSymbols(shown);
   }
 
   /**
@@ -261,9 +257,8 @@ export class FoldlensOverlay extends EventTarget {
   }
 
   /** Hands the symbols of the kinds shown to the custom layer, with their images at the map's pixel ratio. */
-  private updateGlSymbols(): void {
+  private updateGlSymbols(shown: ReadonlyArray<Feature<Point, OverlayFeatureProperties>>): void {
     if (!this.options.show.symbols) return;
-    const shown = this.features.features.filter((f) => !this.visibleKinds || this.visibleKinds.has(KIND_CODES[f.properties.k]));
     const n = shown.length;
     const lon = new Float64Array(n);
     const lat = new Float64Array(n);
