@@ -120,6 +120,53 @@ describe('the custom symbol layer (zoom 15 and up) draws what the symbol layer d
     await page.close();
   });
 
+  it('the kind filter (setVisibleKinds) hides a kind from both symbol layers and from picking, and shows it again', async () => {
+    const page = await browser.newPage({ viewport: { width: 900, height: 650 } });
+    await page.goto(`${inject('demoUrl')}tests/browser/pages/symbol-angles.html`);
+    await page.waitForSelector('body[data-map-ready="true"]', { timeout: 60_000 });
+    type W = { map: import('maplibre-gl').Map; overlay: { symbolsDrawnAtFullZoom: number; setVisibleKinds(k: string[] | null): void; layerId(r: string): string } & EventTarget; stations: Array<{ id: string; kind: string; lon: number; lat: number }>; picked?: string };
+    const counts = await page.evaluate(async () => {
+      const w = window as unknown as W;
+      const idle = () => new Promise((r) => w.map.once('idle', r));
+      const below = () => w.map.queryRenderedFeatures({ layers: [w.overlay.layerId('symbols')] }).length;
+      w.overlay.addEventListener('stationclick', (e) => (w.picked = (e as CustomEvent<{ station: { id: string } }>).detail.station.id));
+      w.map.jumpTo({ zoom: 15, bearing: 0, pitch: 0 });
+      await idle();
+      const all = w.overlay.symbolsDrawnAtFullZoom;
+      w.overlay.setVisibleKinds(['bedding']);
+      w.map.triggerRepaint();
+      await idle();
+      const bedding = w.overlay.symbolsDrawnAtFullZoom;
+      w.map.jumpTo({ zoom: 14.5 });
+      await idle();
+      const beddingBelow = below();
+      const kindsBelow = [...new Set(w.map.queryRenderedFeatures({ layers: [w.overlay.layerId('symbols')] }).map((f) => f.properties.k))];
+      w.map.jumpTo({ zoom: 15 });
+      await idle();
+      const lineation = w.stations.find((s) => s.kind === 'lineation')!;
+      const p = w.map.project([lineation.lon, lineation.lat]);
+      return { all, bedding, beddingBelow, kindsBelow, lineation: { id: lineation.id, x: p.x, y: p.y } };
+    });
+    expect(counts.all).toBe(16);
+    expect(counts.bedding).toBe(8);
+    expect(counts.beddingBelow).toBe(8);
+    expect(counts.kindsBelow).toHaveLength(1);
+    // A hidden lineation cannot be clicked; shown again, it can.
+    await page.mouse.click(counts.lineation.x, counts.lineation.y);
+    await page.waitForTimeout(300);
+    expect(await page.evaluate(() => (window as unknown as W).picked)).toBeUndefined();
+    await page.evaluate(async () => {
+      const w = window as unknown as W;
+      w.overlay.setVisibleKinds(null);
+      w.map.triggerRepaint();
+      await new Promise((r) => w.map.once('idle', r));
+    });
+    expect(await page.evaluate(() => (window as unknown as W).overlay.symbolsDrawnAtFullZoom)).toBe(16);
+    await page.mouse.click(counts.lineation.x, counts.lineation.y);
+    await expect.poll(() => page.evaluate(() => (window as unknown as W).picked), { timeout: 15_000 }).toBe(counts.lineation.id);
+    await page.close();
+  });
+
   it('on a globe, where the custom layer cannot draw, the symbol layer draws every symbol at zoom 15 too', async () => {
     const page = await browser.newPage({ viewport: { width: 900, height: 650 } });
     await page.goto(`${inject('demoUrl')}tests/browser/pages/symbol-angles.html`);
